@@ -1,0 +1,7 @@
+import type { CliCommand } from '../command.ts';
+
+/**
+ * The command map: adding a command means adding one file under `commands/` and one entry
+ * here. Kept in the order `midpath --help` prints them (the order of a working day).
+ */
+export const commands: CliCommand[] = [];
