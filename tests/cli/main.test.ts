@@ -1,20 +1,6 @@
 import { describe, expect, it } from 'vitest';
 import { main } from '../../runner/cli/main.ts';
-import type { CliIo } from '../../runner/cli/command.ts';
-
-function bufferIo(): CliIo & { stdout: string[]; stderr: string[] } {
-  const stdout: string[] = [];
-  const stderr: string[] = [];
-  return {
-    stdout,
-    stderr,
-    out: (t) => stdout.push(t),
-    err: (t) => stderr.push(t),
-    isTty: false,
-    cwd: process.cwd(),
-    env: {},
-  };
-}
+import { bufferIo } from '../helpers/cli-io.ts';
 
 describe('midpath CLI dispatch', () => {
   it('prints help listing every command and exits 0', async () => {
