@@ -14,4 +14,9 @@ export interface MetricRow {
   value: number;
   /** Number of tasks behind the value, when it is an average. */
   n?: number;
+  /**
+   * What one transition of `level` counts (added by evaluation, optional): environment
+   * 'step's, or 'jump's (one geometric offset each, MATH.md §2). See docs/metrics.md.
+   */
+  unit?: 'step' | 'jump';
 }

@@ -1,7 +1,14 @@
 import type { CliCommand } from '../command.ts';
+import { checkCommand } from './check.ts';
+import { expandCommand } from './expand.ts';
+import { tableCommand } from './table.ts';
 
 /**
  * The command map: adding a command means adding one file under `commands/` and one entry
  * here. Kept in the order `midpath --help` prints them (the order of a working day).
  */
-export const commands: CliCommand[] = [];
+export const commands: CliCommand[] = [
+  checkCommand,
+  expandCommand,
+  tableCommand,
+];

@@ -1,0 +1,43 @@
+/**
+ * The evaluate job: load the dataset and the representation its train job saved, run the
+ * evaluation suites, write their plot data as JSON artifacts and return the metrics.
+ */
+import { writeFile } from 'node:fs/promises';
+import { join } from 'node:path';
+import { loadDataset } from '../../data/load-dataset.ts';
+import { evaluateRepresentation } from '../../evaluation/evaluate.ts';
+import type { EvalConfig } from '../../config/types.ts';
+import type { EvalJobSpec } from '../../plan/job-spec.ts';
+import type { JobHandler } from '../job-handler.ts';
+import { loadRepresentation } from './representation-files.ts';
+
+/** The longest chain the step-unit tasks need, in steps (jump chains are redrawn to fit). */
+export function requiredSteps(config: EvalConfig): number {
+  const horizons = config.suites.includes('forecast') || config.suites.includes('calibration') ? config.horizons : [];
+  const spans = config.suites.includes('bridge') || config.suites.includes('calibration') ? config.waypoints.map((t) => t + 1) : [];
+  return Math.max(2, ...horizons.map((h) => h + 1), ...spans.map((s) => s + 1));
+}
+
+/** Runs one evaluation; artifacts land in `<suite>.json` files under ctx.artifactsDir. */
+export const evaluateJob: JobHandler<EvalJobSpec> = async (spec, ctx) => {
+  const started = Date.now();
+  const dataset = await loadDataset(spec.train.data, spec.train.baseDir, { minSteps: requiredSteps(spec.eval) });
+  ctx.log(`dataset ${dataset.name}: ${dataset.test.length} test episodes`);
+  const rep = await loadRepresentation(ctx.artifactsOf(spec.trainId));
+  ctx.log(`representation ${rep.method}, dim ${rep.dim}${rep.critic ? ', with critic' : ''}`);
+  if (ctx.signal.aborted) throw new Error('evaluation stopped before it began');
+  const { metrics, artifacts } = await evaluateRepresentation(rep, dataset, spec);
+  const files: string[] = [];
+  for (const [name, value] of Object.entries(artifacts)) {
+    const file = `${name}.json`;
+    await writeFile(join(ctx.artifactsDir, file), JSON.stringify(value));
+    files.push(file);
+  }
+  const notes = (artifacts.diagnostics as { notes?: string[] } | undefined)?.notes ?? [];
+  for (const note of notes) ctx.log(`note: ${note}`);
+  return {
+    status: 'done',
+    metrics,
+    info: { artifacts: files, notes, seconds: (Date.now() - started) / 1000, suites: spec.eval.suites },
+  };
+};
