@@ -63,6 +63,9 @@ class TrainStep {
     double sq = 0.0;
     for (T g : grads_) sq += double(g) * g;
     stats.gradNorm = std::sqrt(sq);
+    // A non-finite loss or gradient is divergence: leave the parameters as they were, so the
+    // caller can report the last good state (the TF.js engine does the same).
+    if (!std::isfinite(stats.loss) || !std::isfinite(stats.gradNorm)) return stats;
     // Global-norm clipping (Pascanu, Mikolov & Bengio, 2013, Algorithm 2).
     if (cfg_.clip > 0.0 && stats.gradNorm > cfg_.clip) {
       const T k = static_cast<T>(cfg_.clip / stats.gradNorm);

@@ -42,43 +42,86 @@ export function readAtPath(config: unknown, segments: readonly string[]): unknow
  * Writes `value` at dotted `segments` of `config` (in place). A mapping value is merged over
  * the mapping already there, so an axis over `data` may list only what differs.
  */
-export function writeAtPath(config: Record<string, unknown>, segments: readonly string[], value: unknown): void {
+export function writeAtPath(
+  config: Record<string, unknown>,
+  segments: readonly string[],
+  value: unknown,
+): void {
   let cursor = config;
   segments.slice(0, -1).forEach((segment) => {
     if (!isPlainObject(cursor[segment])) cursor[segment] = {};
     cursor = cursor[segment] as Record<string, unknown>;
   });
   const last = segments[segments.length - 1] ?? '';
-  cursor[last] = isPlainObject(value) && isPlainObject(cursor[last]) ? mergeDeep(cursor[last], value) : structuredClone(value);
+  cursor[last] =
+    isPlainObject(value) && isPlainObject(cursor[last])
+      ? mergeDeep(cursor[last], value)
+      : structuredClone(value);
 }
 
-function error(locate: Locate, path: ConfigPath, prefer: 'key' | 'value', code: ConfigError['code'], message: string, hint: string): ConfigError {
+function error(
+  locate: Locate,
+  path: ConfigPath,
+  prefer: 'key' | 'value',
+  code: ConfigError['code'],
+  message: string,
+  hint: string,
+): ConfigError {
   const at = locate(path, prefer);
   return { code, file: at.file, line: at.line, col: at.col, message, hint };
 }
 
 /** Checks that `entry.path` exists and may be swept; returns its schema node when it does. */
-function checkAxisPath(entry: AxisEntry, locate: Locate, errors: ConfigError[]): SchemaNode | undefined {
+function checkAxisPath(
+  entry: AxisEntry,
+  locate: Locate,
+  errors: ConfigError[],
+): SchemaNode | undefined {
   const segments = entry.path.split('.');
   const root = loadSchema();
-  if (!SWEEPABLE.includes(segments[0] ?? '') && root.properties?.[segments[0] ?? ''] !== undefined) {
-    errors.push(error(locate, entry.at, 'key', 'axis-not-sweepable',
-      `expected a path under ${SWEEPABLE.join(', ')}, got \`${entry.path}\``,
-      segments[0] === 'methods' ? 'compared methods are listed under `methods`, not swept' : 'this key is the same for every job; set it once'));
+  if (
+    !SWEEPABLE.includes(segments[0] ?? '') &&
+    root.properties?.[segments[0] ?? ''] !== undefined
+  ) {
+    errors.push(
+      error(
+        locate,
+        entry.at,
+        'key',
+        'axis-not-sweepable',
+        `expected a path under ${SWEEPABLE.join(', ')}, got \`${entry.path}\``,
+        segments[0] === 'methods'
+          ? 'compared methods are listed under `methods`, not swept'
+          : 'this key is the same for every job; set it once',
+      ),
+    );
     return undefined;
   }
   const found = findSchemaAt(root, segments);
   if (!found.node) {
     const close = suggestClosest(entry.path, listSchemaPaths(root));
-    errors.push(error(locate, entry.at, 'key', 'unknown-axis',
-      `expected an existing config path, got \`${entry.path}\` (no key \`${segments[found.depth] ?? ''}\` there)`,
-      close !== undefined ? `did you mean \`${close}\`?` : 'see docs/config.md for every path'));
+    errors.push(
+      error(
+        locate,
+        entry.at,
+        'key',
+        'unknown-axis',
+        `expected an existing config path, got \`${entry.path}\` (no key \`${segments[found.depth] ?? ''}\` there)`,
+        close !== undefined ? `did you mean \`${close}\`?` : 'see docs/config.md for every path',
+      ),
+    );
   }
   return found.node;
 }
 
 /** Validates every listed value as if written at the swept path (merged over the file's value). */
-function checkAxisValues(entry: AxisEntry, node: SchemaNode, config: Record<string, unknown>, locate: Locate, errors: ConfigError[]): void {
+function checkAxisValues(
+  entry: AxisEntry,
+  node: SchemaNode,
+  config: Record<string, unknown>,
+  locate: Locate,
+  errors: ConfigError[],
+): void {
   const segments = entry.path.split('.');
   const validate = compileSchema(node);
   const seen = new Map<string, number>();
@@ -87,8 +130,16 @@ function checkAxisValues(entry: AxisEntry, node: SchemaNode, config: Record<stri
     const key = canonicalJson(value);
     const first = seen.get(key);
     if (first !== undefined) {
-      errors.push(error(locate, at, 'value', 'duplicate-value',
-        `expected distinct values on axis \`${entry.path}\`, got ${key} twice (entries ${first + 1} and ${index + 1})`, 'remove the repeated value'));
+      errors.push(
+        error(
+          locate,
+          at,
+          'value',
+          'duplicate-value',
+          `expected distinct values on axis \`${entry.path}\`, got ${key} twice (entries ${first + 1} and ${index + 1})`,
+          'remove the repeated value',
+        ),
+      );
     }
     seen.set(key, index);
     const trial = structuredClone(config);
@@ -96,36 +147,72 @@ function checkAxisValues(entry: AxisEntry, node: SchemaNode, config: Record<stri
     const written = structuredClone(readAtPath(trial, segments));
     if (!validate(written)) {
       for (const e of mapSchemaErrors(validate.errors ?? [], loadSchema(), locate, at)) {
-        errors.push({ ...e, code: 'bad-axis-value', message: `value ${index + 1} of axis \`${entry.path}\`: ${e.message}` });
+        errors.push({
+          ...e,
+          code: 'bad-axis-value',
+          message: `value ${index + 1} of axis \`${entry.path}\`: ${e.message}`,
+        });
       }
       return;
     }
     writeAtPath(trial, segments, written);
-    const rules = segments[0] === 'data' ? checkDataRules(trial.data as Record<string, unknown>, ['data'])
-      : segments[0] === 'encoder' ? checkEncoderRules(trial.encoder as Record<string, unknown>, ['encoder']) : [];
+    const rules =
+      segments[0] === 'data'
+        ? checkDataRules(trial.data as Record<string, unknown>, ['data'])
+        : segments[0] === 'encoder'
+          ? checkEncoderRules(trial.encoder as Record<string, unknown>, ['encoder'])
+          : [];
     for (const issue of rules) {
-      errors.push(error(locate, at, 'value', 'bad-axis-value', `value ${index + 1} of axis \`${entry.path}\`: ${issue.message}`, issue.hint));
+      errors.push(
+        error(
+          locate,
+          at,
+          'value',
+          'bad-axis-value',
+          `value ${index + 1} of axis \`${entry.path}\`: ${issue.message}`,
+          issue.hint,
+        ),
+      );
     }
   });
 }
 
-function listEntries(sweep: { axes: Record<string, unknown[]>; together: Record<string, unknown[]>[] }): AxisEntry[] {
-  const entries: AxisEntry[] = Object.entries(sweep.axes).map(([path, values]) => ({ path, values, at: ['sweep', 'axes', path] }));
+function listEntries(sweep: {
+  axes: Record<string, unknown[]>;
+  together: Record<string, unknown[]>[];
+}): AxisEntry[] {
+  const entries: AxisEntry[] = Object.entries(sweep.axes).map(([path, values]) => ({
+    path,
+    values,
+    at: ['sweep', 'axes', path],
+  }));
   sweep.together.forEach((group, g) => {
-    for (const [path, values] of Object.entries(group)) entries.push({ path, values, at: ['sweep', 'together', g, path] });
+    for (const [path, values] of Object.entries(group))
+      entries.push({ path, values, at: ['sweep', 'together', g, path] });
   });
   return entries;
 }
 
 /** Checks paired groups: every path of a group lists the same number of values. */
-function checkTogether(together: Record<string, unknown[]>[], locate: Locate, errors: ConfigError[]): void {
+function checkTogether(
+  together: Record<string, unknown[]>[],
+  locate: Locate,
+  errors: ConfigError[],
+): void {
   together.forEach((group, g) => {
     const [firstPath, firstValues] = Object.entries(group)[0] ?? ['', []];
     for (const [path, values] of Object.entries(group)) {
       if (values.length !== firstValues.length) {
-        errors.push(error(locate, ['sweep', 'together', g, path], 'key', 'together-length',
-          `expected ${firstValues.length} values like \`${firstPath}\`, got ${values.length} for \`${path}\``,
-          'paired paths vary together, one value of each per setting: list the same number of values'));
+        errors.push(
+          error(
+            locate,
+            ['sweep', 'together', g, path],
+            'key',
+            'together-length',
+            `expected ${firstValues.length} values like \`${firstPath}\`, got ${values.length} for \`${path}\``,
+            'paired paths vary together, one value of each per setting: list the same number of values',
+          ),
+        );
       }
     }
   });
@@ -134,11 +221,27 @@ function checkTogether(together: Record<string, unknown[]>[], locate: Locate, er
 /** Reports a path swept twice, or swept inside another swept path. */
 function checkOverlaps(entries: AxisEntry[], locate: Locate, errors: ConfigError[]): void {
   entries.forEach((entry, i) => {
-    const earlier = entries.slice(0, i).find((e) => e.path === entry.path || entry.path.startsWith(`${e.path}.`) || e.path.startsWith(`${entry.path}.`));
+    const earlier = entries
+      .slice(0, i)
+      .find(
+        (e) =>
+          e.path === entry.path ||
+          entry.path.startsWith(`${e.path}.`) ||
+          e.path.startsWith(`${entry.path}.`),
+      );
     if (earlier) {
-      const what = earlier.path === entry.path ? 'is already swept' : `overlaps the swept \`${earlier.path}\``;
-      errors.push(error(locate, entry.at, 'key', 'duplicate-axis', `expected each path swept once, got \`${entry.path}\`, which ${what}`,
-        'keep one axis per path; use a `together` group for paths that must vary together'));
+      const what =
+        earlier.path === entry.path ? 'is already swept' : `overlaps the swept \`${earlier.path}\``;
+      errors.push(
+        error(
+          locate,
+          entry.at,
+          'key',
+          'duplicate-axis',
+          `expected each path swept once, got \`${entry.path}\`, which ${what}`,
+          'keep one axis per path; use a `together` group for paths that must vary together',
+        ),
+      );
     }
   });
 }
@@ -149,14 +252,25 @@ function checkOverlaps(entries: AxisEntry[], locate: Locate, errors: ConfigError
  * groups have equal lengths. `config` has passed the schema (defaults filled).
  */
 export function checkSweep(config: Record<string, unknown>, locate: Locate): ConfigError[] {
-  const sweep = config.sweep as { axes: Record<string, unknown[]>; together: Record<string, unknown[]>[] };
+  const sweep = config.sweep as {
+    axes: Record<string, unknown[]>;
+    together: Record<string, unknown[]>[];
+  };
   const errors: ConfigError[] = [];
   const entries = listEntries(sweep);
   for (const entry of entries) {
     const node = checkAxisPath(entry, locate, errors);
     if (entry.values.length === 0) {
-      errors.push(error(locate, entry.at, 'key', 'empty-axis', `expected at least one value on axis \`${entry.path}\`, got an empty list`,
-        'list the values to sweep, or remove the axis'));
+      errors.push(
+        error(
+          locate,
+          entry.at,
+          'key',
+          'empty-axis',
+          `expected at least one value on axis \`${entry.path}\`, got an empty list`,
+          'list the values to sweep, or remove the axis',
+        ),
+      );
     } else if (node) {
       checkAxisValues(entry, node, config, locate, errors);
     }

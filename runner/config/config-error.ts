@@ -24,13 +24,16 @@ export const CONFIG_ERROR_CODES = {
   'duplicate-value': 'A list that must hold distinct values repeats one.',
   'empty-list': 'A list that needs at least one entry is empty.',
   'bad-split': 'The episode split fractions do not sum to 1.',
-  'needs-key': 'A choice requires a companion key that is missing (e.g. source `file` needs `data.file`).',
+  'needs-key':
+    'A choice requires a companion key that is missing (e.g. source `file` needs `data.file`).',
   'duplicate-method': 'Two compared methods share the same table label.',
   'unknown-axis': 'A sweep axis names a config path that does not exist.',
-  'axis-not-sweepable': 'A sweep axis names a path that cannot vary between jobs (sweep, run, name, methods).',
+  'axis-not-sweepable':
+    'A sweep axis names a path that cannot vary between jobs (sweep, run, name, methods).',
   'bad-axis-value': 'A value listed on a sweep axis is not accepted by the path it sweeps.',
   'empty-axis': 'A sweep axis lists no values.',
-  'duplicate-axis': 'A path is swept twice (in `axes` and `together`, twice in a group, or nested in another swept path).',
+  'duplicate-axis':
+    'A path is swept twice (in `axes` and `together`, twice in a group, or nested in another swept path).',
   'together-length': 'The paths of a `together` group list different numbers of values.',
   'too-many-jobs': 'The sweep expands to more jobs than `run.maxJobs` allows.',
   'bad-override': 'A `--set path=value` override is malformed.',

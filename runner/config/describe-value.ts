@@ -13,7 +13,8 @@ export function describeValue(value: unknown): string {
   if (value === null || value === undefined) return 'nothing (null)';
   if (typeof value === 'string') return `text ${JSON.stringify(value)}`;
   if (typeof value === 'number' || typeof value === 'boolean') return String(value);
-  if (Array.isArray(value)) return value.length === 0 ? 'an empty list' : `a list of ${value.length}`;
+  if (Array.isArray(value))
+    return value.length === 0 ? 'an empty list' : `a list of ${value.length}`;
   return 'a mapping';
 }
 

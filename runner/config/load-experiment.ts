@@ -25,11 +25,12 @@ export interface LoadOptions {
 
 /** A name that satisfies the schema's pattern, from the file name: `Night Sweep.yaml` → `night-sweep`. */
 export function nameFromFile(file: string): string {
-  const stem = basename(file, extname(file)).toLowerCase().replace(/[^a-z0-9._-]+/g, '-');
+  const stem = basename(file, extname(file))
+    .toLowerCase()
+    .replace(/[^a-z0-9._-]+/g, '-');
   const trimmed = stem.replace(/^[^a-z0-9]+/, '').slice(0, 64);
   return trimmed === '' ? 'experiment' : trimmed;
 }
-
 
 /**
  * Reads, merges (`extends`), overrides (`--set`), validates and resolves one experiment file.
@@ -64,18 +65,39 @@ export async function loadExperiment(file: string, options: LoadOptions = {}): P
   if (!['data', 'encoder', 'methods'].some((s) => broken.has(s))) {
     for (const issue of checkConfigRules(config)) {
       const at = locate(issue.path, issue.prefer);
-      errors.push({ code: issue.code, file: at.file, line: at.line, col: at.col, message: issue.message, hint: issue.hint });
+      errors.push({
+        code: issue.code,
+        file: at.file,
+        line: at.line,
+        col: at.col,
+        message: issue.message,
+        hint: issue.hint,
+      });
     }
   }
-  if (!['', 'sweep.', 'sweep.axes', 'sweep.together'].some((s) => broken.has(s))) errors.push(...checkSweep(config, locate));
+  if (!['sweep.', 'sweep.axes', 'sweep.together'].some((s) => broken.has(s)))
+    errors.push(...checkSweep(config, locate));
   if (errors.length > 0) return { ok: false, errors: sortConfigErrors(errors) };
-  const resolved = { ...config, methods: resolveMethods(config.methods as { name: string; label?: string }[]) } as unknown as ExperimentConfig;
+  const resolved = {
+    ...config,
+    methods: resolveMethods(config.methods as { name: string; label?: string }[]),
+  } as unknown as ExperimentConfig;
   const count = countJobs(resolved);
   if (count.total > resolved.run.maxJobs) {
     const at = locate(['sweep'], 'key');
-    return { ok: false, errors: [{ code: 'too-many-jobs', file: at.file, line: at.line, col: at.col,
-      message: `expected at most run.maxJobs = ${resolved.run.maxJobs} jobs, got ${count.total} (${count.train} train + ${count.evaluate} evaluate)`,
-      hint: 'shorten the axes or seeds, or raise `run.maxJobs` if you really mean it' }] };
+    return {
+      ok: false,
+      errors: [
+        {
+          code: 'too-many-jobs',
+          file: at.file,
+          line: at.line,
+          col: at.col,
+          message: `expected at most run.maxJobs = ${resolved.run.maxJobs} jobs, got ${count.total} (${count.train} train + ${count.evaluate} evaluate)`,
+          hint: 'shorten the axes or seeds, or raise `run.maxJobs` if you really mean it',
+        },
+      ],
+    };
   }
   return { ok: true, config: resolved, file: absPath, baseDir: dirname(absPath) };
 }

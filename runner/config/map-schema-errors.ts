@@ -1,6 +1,12 @@
 import type { ErrorObject } from 'ajv';
 import type { ConfigError, ConfigErrorCode } from './config-error.ts';
-import { describeType, describeValue, formatPath, parsePointer, typeOfValue } from './describe-value.ts';
+import {
+  describeType,
+  describeValue,
+  formatPath,
+  parsePointer,
+  typeOfValue,
+} from './describe-value.ts';
 import type { SchemaNode } from './schema.ts';
 import type { ConfigPath, SourcePos } from './source-locations.ts';
 import { suggestClosest } from './suggest.ts';
@@ -28,7 +34,8 @@ export function describeRange(node: SchemaNode): string {
 }
 
 function branchType(node: SchemaNode): string[] {
-  if (typeof node.type === 'string') return node.type === 'number' ? ['number', 'integer'] : [node.type];
+  if (typeof node.type === 'string')
+    return node.type === 'number' ? ['number', 'integer'] : [node.type];
   return Array.isArray(node.type) ? node.type : [];
 }
 
@@ -48,18 +55,30 @@ function draftUnknownKey(e: ErrorObject, path: ConfigPath, root: SchemaNode): Dr
   const allowed = Object.keys((e.parentSchema as SchemaNode).properties ?? {});
   const close = suggestClosest(key, allowed);
   const elsewhere = findKeyElsewhere(root, key);
-  const hint = close !== undefined ? `did you mean \`${close}\`?`
-    : elsewhere !== undefined ? `\`${key}\` belongs at \`${elsewhere}\``
-    : `allowed keys here: ${allowed.join(', ')}`;
-  return { code: 'unknown-key', path: [...path, key], prefer: 'key', hint,
-    message: `unknown key \`${key}\` in ${formatPath(path)}; expected one of ${allowed.join(', ')}` };
+  const hint =
+    close !== undefined
+      ? `did you mean \`${close}\`?`
+      : elsewhere !== undefined
+        ? `\`${key}\` belongs at \`${elsewhere}\``
+        : `allowed keys here: ${allowed.join(', ')}`;
+  return {
+    code: 'unknown-key',
+    path: [...path, key],
+    prefer: 'key',
+    hint,
+    message: `unknown key \`${key}\` in ${formatPath(path)}; expected one of ${allowed.join(', ')}`,
+  };
 }
 
 function draftRange(e: ErrorObject, path: ConfigPath): Draft {
   const node = e.parentSchema as SchemaNode;
-  const hint = node.description !== undefined ? `${formatPath(path)}: ${node.description}` : undefined;
-  const draft: Draft = { code: 'out-of-range', path, prefer: 'value',
-    message: `expected ${describeRange(node)}, got ${describeValue(e.data)}` };
+  const hint = node.description;
+  const draft: Draft = {
+    code: 'out-of-range',
+    path,
+    prefer: 'value',
+    message: `expected ${describeRange(node)}, got ${describeValue(e.data)}`,
+  };
   if (hint !== undefined) draft.hint = hint;
   return draft;
 }
@@ -67,66 +86,117 @@ function draftRange(e: ErrorObject, path: ConfigPath): Draft {
 function draftListLength(e: ErrorObject, path: ConfigPath): Draft {
   const limit = (e.params as { limit: number }).limit;
   if (e.keyword === 'minItems' && limit === 1) {
-    return { code: 'empty-list', path, prefer: 'value', message: 'expected at least one entry, got an empty list',
-      hint: `list at least one value under ${formatPath(path)}, or delete the key to use its default` };
+    return {
+      code: 'empty-list',
+      path,
+      prefer: 'value',
+      message: 'expected at least one entry, got an empty list',
+      hint: `list at least one value under ${formatPath(path)}, or delete the key to use its default`,
+    };
   }
   const bound = e.keyword === 'minItems' || e.keyword === 'minProperties' ? 'at least' : 'at most';
   const count = Array.isArray(e.data) ? e.data.length : Object.keys(e.data as object).length;
   const hint = e.keyword === 'minProperties' ? 'a single path belongs in sweep.axes' : undefined;
-  const draft: Draft = { code: 'out-of-range', path, prefer: 'value',
-    message: `expected ${bound} ${limit} entries, got ${count}` };
+  const draft: Draft = {
+    code: 'out-of-range',
+    path,
+    prefer: 'value',
+    message: `expected ${bound} ${limit} entries, got ${count}`,
+  };
   if (hint !== undefined) draft.hint = hint;
   return draft;
 }
 
 /** Turns one ajv error into a draft ConfigError, or undefined for errors folded elsewhere. */
 function draftError(e: ErrorObject, root: SchemaNode): Draft | undefined {
-  const path = parsePointer(e.instancePath, undefined).map((s) => (/^\d+$/.test(String(s)) ? Number(s) : s));
+  const path = parsePointer(e.instancePath, undefined).map((s) =>
+    /^\d+$/.test(String(s)) ? Number(s) : s,
+  );
   switch (e.keyword) {
     case 'additionalProperties':
       return draftUnknownKey(e, path, root);
     case 'required': {
       const key = (e.params as { missingProperty: string }).missingProperty;
-      return { code: 'missing-key', path, prefer: 'key', hint: `add \`${key}:\` under ${formatPath(path)}`,
-        message: `expected key \`${key}\` in ${formatPath(path)}, got none` };
+      return {
+        code: 'missing-key',
+        path,
+        prefer: 'key',
+        hint: `add \`${key}:\` under ${formatPath(path)}`,
+        message: `expected key \`${key}\` in ${formatPath(path)}, got none`,
+      };
     }
     case 'type': {
       const want = String((e.params as { type: string }).type);
-      const hint = want === 'array' ? 'write a list, e.g. `[a, b]` or one `- item` per line'
-        : want === 'integer' && typeof e.data === 'number' ? 'use a whole number' : undefined;
-      const draft: Draft = { code: 'wrong-type', path, prefer: 'value',
-        message: `expected ${describeType(want)}, got ${describeValue(e.data)}` };
+      const hint =
+        want === 'array'
+          ? 'write a list, e.g. `[a, b]` or one `- item` per line'
+          : want === 'integer' && typeof e.data === 'number'
+            ? 'use a whole number'
+            : undefined;
+      const draft: Draft = {
+        code: 'wrong-type',
+        path,
+        prefer: 'value',
+        message: `expected ${describeType(want)}, got ${describeValue(e.data)}`,
+      };
       if (hint !== undefined) draft.hint = hint;
       return draft;
     }
-    case 'minimum': case 'maximum': case 'exclusiveMinimum': case 'exclusiveMaximum':
+    case 'minimum':
+    case 'maximum':
+    case 'exclusiveMinimum':
+    case 'exclusiveMaximum':
       return draftRange(e, path);
-    case 'minItems': case 'maxItems': case 'minProperties':
+    case 'minItems':
+    case 'maxItems':
+    case 'minProperties':
       return draftListLength(e, path);
     case 'enum': {
-      const allowed = ((e.params as { allowedValues: unknown[] }).allowedValues).map(String);
+      const allowed = (e.params as { allowedValues: unknown[] }).allowedValues.map(String);
       const close = typeof e.data === 'string' ? suggestClosest(e.data, allowed) : undefined;
-      return { code: 'unknown-value', path, prefer: 'value',
+      return {
+        code: 'unknown-value',
+        path,
+        prefer: 'value',
         message: `expected one of ${allowed.join(', ')}, got ${describeValue(e.data)}`,
-        hint: close !== undefined ? `did you mean \`${close}\`?` : `pick one of ${allowed.join(', ')}` };
+        hint:
+          close !== undefined ? `did you mean \`${close}\`?` : `pick one of ${allowed.join(', ')}`,
+      };
     }
     case 'uniqueItems': {
       const { i, j } = e.params as { i: number; j: number };
       const list = e.data as unknown[];
-      return { code: 'duplicate-value', path: [...path, i], prefer: 'value',
+      return {
+        code: 'duplicate-value',
+        path: [...path, i],
+        prefer: 'value',
         message: `expected distinct values, got ${JSON.stringify(list[i])} twice (entries ${j + 1} and ${i + 1})`,
-        hint: 'remove the repeated entry' };
+        hint: 'remove the repeated entry',
+      };
     }
     case 'pattern':
-      return { code: 'bad-format', path, prefer: 'value',
+      return {
+        code: 'bad-format',
+        path,
+        prefer: 'value',
         message: `expected text matching ${(e.params as { pattern: string }).pattern}, got ${describeValue(e.data)}`,
-        hint: 'use lower-case letters, digits, `.`, `_` and `-`, starting with a letter or digit' };
+        hint: 'use lower-case letters, digits, `.`, `_` and `-`, starting with a letter or digit',
+      };
     case 'propertyNames':
-      return { code: 'unknown-axis', path: [...path, String((e.params as { propertyName: string }).propertyName)],
-        prefer: 'key', message: `expected a dotted config path such as \`train.discount\`, got ${JSON.stringify((e.params as { propertyName: string }).propertyName)}`,
-        hint: 'write the path of a key, segments joined by dots' };
+      return {
+        code: 'unknown-axis',
+        path: [...path, String((e.params as { propertyName: string }).propertyName)],
+        prefer: 'key',
+        message: `expected a dotted config path such as \`train.discount\`, got ${JSON.stringify((e.params as { propertyName: string }).propertyName)}`,
+        hint: 'write the path of a key, segments joined by dots',
+      };
     default:
-      return { code: 'wrong-type', path, prefer: 'value', message: `expected a valid value, got ${describeValue(e.data)} (${e.message ?? e.keyword})` };
+      return {
+        code: 'wrong-type',
+        path,
+        prefer: 'value',
+        message: `expected a valid value, got ${describeValue(e.data)} (${e.message ?? e.keyword})`,
+      };
   }
 }
 
@@ -145,15 +215,23 @@ function foldAnyOf(errors: ErrorObject[]): { kept: ErrorObject[]; drafts: Draft[
     chosen.set(`${e.instancePath}|${e.schemaPath}`, index);
     if (index < 0) {
       const wanted = [...new Set(branches.map((t) => describeType(t[0] ?? '')))].join(' or ');
-      const path = parsePointer(e.instancePath, undefined).map((s) => (/^\d+$/.test(String(s)) ? Number(s) : s));
-      drafts.push({ code: 'wrong-type', path, prefer: 'value', message: `expected ${wanted}, got ${describeValue(e.data)}` });
+      const path = parsePointer(e.instancePath, undefined).map((s) =>
+        /^\d+$/.test(String(s)) ? Number(s) : s,
+      );
+      drafts.push({
+        code: 'wrong-type',
+        path,
+        prefer: 'value',
+        message: `expected ${wanted}, got ${describeValue(e.data)}`,
+      });
     }
   }
   const kept = errors.filter((e) => {
     if (e.keyword === 'anyOf' || e.propertyName !== undefined) return false;
     for (const [key, index] of chosen) {
       const [instancePath, schemaPath] = key.split('|') as [string, string];
-      const inside = e.instancePath === instancePath || e.instancePath.startsWith(`${instancePath}/`);
+      const inside =
+        e.instancePath === instancePath || e.instancePath.startsWith(`${instancePath}/`);
       if (inside && e.schemaPath.startsWith(`${schemaPath}/`)) {
         return e.schemaPath.startsWith(`${schemaPath}/${index}/`);
       }
@@ -177,8 +255,13 @@ export function mapSchemaErrors(
   for (const draft of all) {
     const path = [...prefix, ...draft.path];
     const at = locate(path, draft.prefer);
-    const error: ConfigError = { code: draft.code, file: at.file, line: at.line, col: at.col,
-      message: draft.message };
+    const error: ConfigError = {
+      code: draft.code,
+      file: at.file,
+      line: at.line,
+      col: at.col,
+      message: draft.message,
+    };
     if (draft.hint !== undefined) error.hint = draft.hint;
     const key = `${error.file}:${error.line}:${error.col}:${error.code}:${error.message}`;
     if (!seen.has(key)) out.push(error);

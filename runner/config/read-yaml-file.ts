@@ -70,15 +70,29 @@ export function readYamlFile(absPath: string, file: string): YamlRead {
     return { ok: false, errors };
   }
   if (doc.contents === null || (doc.contents as { value?: unknown }).value === null) {
-    return fail(file, 'empty-file', 'expected a mapping of experiment keys, got an empty file',
-      'start from configs/demo.yaml');
+    return fail(
+      file,
+      'empty-file',
+      'expected a mapping of experiment keys, got an empty file',
+      'start from configs/demo.yaml',
+    );
   }
   if (!isMap(doc.contents)) {
     const what = isSeq(doc.contents) ? 'a list' : 'a single value';
     const { line, col } = counter.linePos(doc.contents.range?.[0] ?? 0);
-    return { ok: false, errors: [{ code: 'not-a-mapping', file, line, col,
-      message: `expected a mapping of keys (name:, data:, …), got ${what}`,
-      hint: 'write one `key: value` per line at the top level' }] };
+    return {
+      ok: false,
+      errors: [
+        {
+          code: 'not-a-mapping',
+          file,
+          line,
+          col,
+          message: `expected a mapping of keys (name:, data:, …), got ${what}`,
+          hint: 'write one `key: value` per line at the top level',
+        },
+      ],
+    };
   }
   let value: unknown;
   try {

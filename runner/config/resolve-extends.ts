@@ -32,14 +32,20 @@ export function readWithBases(absPath: string, cwd: string, chain: string[] = []
     errors: [{ code, file, line: at.line, col: at.col, message, hint }],
   });
   if (typeof base !== 'string' || base.trim() === '') {
-    return located('wrong-type', `expected a relative file path, got ${JSON.stringify(base)}`,
-      'write `extends: ./base.yaml`');
+    return located(
+      'wrong-type',
+      `expected a relative file path, got ${JSON.stringify(base)}`,
+      'write `extends: ./base.yaml`',
+    );
   }
   const baseAbs = resolve(dirname(absPath), base);
   if (baseAbs === absPath || chain.includes(baseAbs)) {
     const loop = [...chain, absPath, baseAbs].map((p) => displayPath(p, cwd)).join(' → ');
-    return located('extends-cycle', `expected a chain of base files that ends, got a loop: ${loop}`,
-      'remove the `extends` that leads back to a file already in the chain');
+    return located(
+      'extends-cycle',
+      `expected a chain of base files that ends, got a loop: ${loop}`,
+      'remove the `extends` that leads back to a file already in the chain',
+    );
   }
   const parent = readWithBases(baseAbs, cwd, [...chain, absPath]);
   if (!parent.ok) {
@@ -47,8 +53,11 @@ export function readWithBases(absPath: string, cwd: string, chain: string[] = []
       (e) => e.code === 'file-not-found' && e.file === displayPath(baseAbs, cwd),
     );
     if (missing) {
-      return located('extends-missing', `expected a base file at ${missing.file}, got nothing there`,
-        'fix the path; it is resolved relative to the file that names it');
+      return located(
+        'extends-missing',
+        `expected a base file at ${missing.file}, got nothing there`,
+        'fix the path; it is resolved relative to the file that names it',
+      );
     }
     return parent;
   }

@@ -58,7 +58,8 @@ export function compileSchema(node: SchemaNode): ValidateFunction {
   let validate = compiled.get(node);
   if (!validate) {
     // A root-level `default` means nothing to ajv (and strict mode rejects it): drop it.
-    const { $schema: _s, $id: _i, default: _d, ...rest } = node;
+    const rest: SchemaNode = { ...node };
+    for (const keyword of ['$schema', '$id', 'default']) delete rest[keyword];
     validate = createValidator().compile(rest);
     compiled.set(node, validate);
   }

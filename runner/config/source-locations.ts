@@ -44,7 +44,8 @@ export class LocationMap {
   locate(path: ConfigPath, prefer: 'key' | 'value' = 'value'): SourcePos {
     for (let n = path.length; n >= 0; n--) {
       const found = this.entries.get(keyOf(path.slice(0, n)));
-      if (found) return (prefer === 'key' && n === path.length ? found.key : undefined) ?? found.value;
+      if (found)
+        return (prefer === 'key' && n === path.length ? found.key : undefined) ?? found.value;
     }
     return this.fallback;
   }
@@ -83,9 +84,7 @@ export function recordYamlLocations(
       const key = String(pair.key.value);
       const keyPos = positionAt(file, counter, pair.key.range?.[0] ?? 0);
       const valueNode = pair.value as Node | null;
-      const valuePos = valueNode?.range
-        ? positionAt(file, counter, valueNode.range[0])
-        : keyPos;
+      const valuePos = valueNode?.range ? positionAt(file, counter, valueNode.range[0]) : keyPos;
       map.record([...prefix, key], { key: keyPos, value: valuePos });
       recordYamlLocations(valueNode, file, counter, map, [...prefix, key]);
     }

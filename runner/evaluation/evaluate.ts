@@ -34,7 +34,9 @@ export function evaluateRepresentation(
 
 function evaluateNow(rep: Representation, dataset: Dataset, spec: EvalJobSpec): Evaluation {
   if (dataset.test.length === 0) {
-    throw new RangeError(`dataset ${dataset.name} has no test episodes: raise data.split.test above 0`);
+    throw new RangeError(
+      `dataset ${dataset.name} has no test episodes: raise data.split.test above 0`,
+    );
   }
   const context = buildContext(rep, dataset, {
     config: spec.eval,

@@ -48,12 +48,13 @@ function describeCrash(
   tail: LogTail,
   exit: { code: number | null; signal: NodeJS.Signals | null; timedOut: boolean },
 ): { cause: CrashCause; reason: string } {
-  const minutes = (launch.timeLimitMs / 60_000).toPrecision(3);
+  const ms = launch.timeLimitMs;
+  const limit = ms < 60_000 ? `${ms / 1000} s` : `${Number((ms / 60_000).toPrecision(3))} min`;
   if (exit.timedOut) {
     const kind = launch.request.spec.kind;
     return {
       cause: 'timeout',
-      reason: `time limit exceeded: ran past ${minutes} min (raise run.timeout.${kind} in the experiment file)`,
+      reason: `time limit exceeded: ran past ${limit} (raise run.timeout.${kind} in the experiment file)`,
     };
   }
   if (tail.matches(OUT_OF_MEMORY)) {

@@ -132,6 +132,8 @@ export async function runJob(
         return keep(settings, { ...base, status: 'diverged', error }, error.reason);
       }
       case 'crash': {
+        // Killed while the sweep stops (a cluster's cancel signals every process): unfinished, not failed.
+        if (result.cause === 'killed' && settings.control.draining) return 'interrupted';
         const retry =
           RETRIED.has(result.cause) && attempt <= settings.retries && !settings.control.draining;
         if (retry) {

@@ -75,5 +75,8 @@ process.on('message', (message: ToWorker) => {
       break;
   }
 });
+// Ctrl-C reaches the whole terminal process group; the runner decides what stops (first
+// Ctrl-C lets running jobs finish), so workers ignore it. SIGKILL still ends them.
+process.on('SIGINT', () => undefined);
 // The runner is gone (kill -9, crash): stop at once so no orphan keeps computing.
 process.on('disconnect', () => process.exit(1));

@@ -41,16 +41,25 @@ function* iterateIndices(lengths: readonly number[]): Generator<number[]> {
 }
 
 /** The config of one combination: the file's values with each axis value written in. */
-function applyCombination(config: ExperimentConfig, axes: PlanAxis[], combo: number[]): ExperimentConfig {
+function applyCombination(
+  config: ExperimentConfig,
+  axes: PlanAxis[],
+  combo: number[],
+): ExperimentConfig {
   const out = structuredClone(config) as unknown as Record<string, unknown>;
   axes.forEach((axis, a) => {
-    for (const path of axis.paths) writeAtPath(out, path.split('.'), axis.values[path]?.[combo[a] ?? 0]);
+    for (const path of axis.paths)
+      writeAtPath(out, path.split('.'), axis.values[path]?.[combo[a] ?? 0]);
   });
   return out as unknown as ExperimentConfig;
 }
 
 /** The setting columns of a job: the axis paths that are inputs to it, with their labels. */
-function describeSetting(axes: PlanAxis[], combo: number[], keep: (path: string) => boolean): Setting {
+function describeSetting(
+  axes: PlanAxis[],
+  combo: number[],
+  keep: (path: string) => boolean,
+): Setting {
   const setting: Setting = {};
   axes.forEach((axis, a) => {
     if (!axis.paths.some(keep)) return;
@@ -60,7 +69,11 @@ function describeSetting(axes: PlanAxis[], combo: number[], keep: (path: string)
 }
 
 /** What determines a train job's output, per METHOD_INPUTS; only this is hashed into its id. */
-function trainInputs(method: MethodConfig, seed: number, cfg: ExperimentConfig): Record<string, unknown> {
+function trainInputs(
+  method: MethodConfig,
+  seed: number,
+  cfg: ExperimentConfig,
+): Record<string, unknown> {
   const uses = METHOD_INPUTS[method.name];
   const inputs: Record<string, unknown> = { kind: 'train', method: method.name, data: cfg.data };
   if (uses.path) inputs.path = method.path;
@@ -93,14 +106,39 @@ export function expandPlan(config: ExperimentConfig, baseDir: string): JobSpec[]
         const trainSetting = describeSetting(axes, combo, (p) => isTrainInput(method.name, p));
         let train = trainJobs.get(trainId);
         if (!train) {
-          train = { kind: 'train', id: trainId, experiment: config.name, setting: trainSetting, method, seed,
-            data: cfg.data, encoder: cfg.encoder, dim: cfg.dim, train: cfg.train, baseDir };
+          train = {
+            kind: 'train',
+            id: trainId,
+            experiment: config.name,
+            setting: trainSetting,
+            method,
+            seed,
+            data: cfg.data,
+            encoder: cfg.encoder,
+            dim: cfg.dim,
+            train: cfg.train,
+            baseDir,
+          };
           trainJobs.set(trainId, train);
         }
         const id = hashJob({ kind: 'evaluate', trainId, eval: cfg.eval });
         if (evalJobs.has(id)) continue;
-        const setting = describeSetting(axes, combo, (p) => isTrainInput(method.name, p) || isEvalInput(p));
-        evalJobs.set(id, { kind: 'evaluate', id, trainId, experiment: config.name, setting, method, seed, train, eval: cfg.eval });
+        const setting = describeSetting(
+          axes,
+          combo,
+          (p) => isTrainInput(method.name, p) || isEvalInput(p),
+        );
+        evalJobs.set(id, {
+          kind: 'evaluate',
+          id,
+          trainId,
+          experiment: config.name,
+          setting,
+          method,
+          seed,
+          train,
+          eval: cfg.eval,
+        });
       }
     }
   }

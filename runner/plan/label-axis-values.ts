@@ -13,7 +13,10 @@ export function labelAxisValues(values: readonly unknown[]): unknown[] {
   if (!values.every(isPlainObject)) return [...values];
   const blocks = values as Record<string, unknown>[];
   const keys = [...new Set(blocks.flatMap((b) => Object.keys(b)))];
-  const differing = blocks.length === 1 ? keys : keys.filter((key) => new Set(blocks.map((b) => canonicalJson(b[key] ?? null))).size > 1);
+  const differing =
+    blocks.length === 1
+      ? keys
+      : keys.filter((key) => new Set(blocks.map((b) => canonicalJson(b[key] ?? null))).size > 1);
   differing.sort((a, b) => Number(b === 'source') - Number(a === 'source'));
   const sources = blocks.map((b) => b.source);
   if (sources.every((s) => typeof s === 'string') && new Set(sources).size === blocks.length) {

@@ -7,7 +7,10 @@ export { countJobs, type JobCount };
 export class PlanTooLargeError extends Error {
   readonly code = 'too-many-jobs';
 
-  constructor(readonly count: JobCount, readonly limit: number) {
+  constructor(
+    readonly count: JobCount,
+    readonly limit: number,
+  ) {
     super(`expected at most run.maxJobs = ${limit} jobs, got ${count.total}`);
     this.name = 'PlanTooLargeError';
   }

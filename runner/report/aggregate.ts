@@ -80,6 +80,19 @@ export function compareSettingValues(a: string, b: string): number {
   return compareText(a, b);
 }
 
+/** Compares two settings column by column (numerically where both values are numbers). */
+export function compareSettings(
+  a: Record<string, string>,
+  b: Record<string, string>,
+  columns: readonly string[],
+): number {
+  for (const column of columns) {
+    const c = compareSettingValues(a[column] ?? '', b[column] ?? '');
+    if (c !== 0) return c;
+  }
+  return 0;
+}
+
 /** The identity of a group, as one string (also used to match runs in `compare`). */
 export function summaryKey(s: Omit<MetricSummary, 'seeds' | 'values' | 'tasks'>): string {
   return JSON.stringify([s.setting, s.method, s.suite, s.metric, s.source, s.level, s.unit]);
@@ -158,11 +171,8 @@ export function aggregateMetrics(
     return i < 0 ? methodOrder.length : i;
   };
   return summaries.sort((a, b) => {
-    for (const column of columns) {
-      const c = compareSettingValues(a.setting[column] ?? '', b.setting[column] ?? '');
-      if (c !== 0) return c;
-    }
     return (
+      compareSettings(a.setting, b.setting, columns) ||
       rank(a.method) - rank(b.method) ||
       compareText(a.method, b.method) ||
       compareText(a.suite, b.suite) ||

@@ -25,24 +25,30 @@ const none = (): MetricDirection => ({ kind: 'none' });
 /** The ordered rule list; exported so the docs and the tests read the same table. */
 export const DIRECTION_RULES: readonly DirectionRule[] = [
   {
-    pattern: /^coverage_(\d+)$/,
-    direction: (m) => ({ kind: 'target', target: Number(m[1]) / 100 }),
+    pattern: /(^|_)coverage_(\d+)$/,
+    direction: (m) => ({ kind: 'target', target: Number(m[2]) / 100 }),
     why: 'coverage at p % should equal p / 100 (closer is better)',
   },
   {
-    pattern: /(^|_)(p|pvalue|p_value|statistic|count|n)$/,
+    pattern: /(kurtosis_ratio|sv_ratio_min|sv_ratio_max)$/,
+    direction: () => ({ kind: 'target', target: 1 }),
+    why: 'ratios to the value the Gaussian / stationary model predicts should be 1',
+  },
+  {
+    pattern: /(^|_)(p|pvalue|p_value|statistic|count|n|min|max)(_holm|_bh)?$/,
     direction: none,
-    why: 'p-values, raw test statistics and counts are evidence, not quality',
+    why: 'p-values, raw test statistics, counts and extreme eigenvalues are evidence, not quality',
   },
   {
     pattern: /(success|skill|accuracy|acc|mrr|recall|top\d+|auc)(_|$)/,
     direction: higher,
-    why: 'success rates, skill scores, accuracies and retrieval ranks-as-scores',
+    why: 'success rates, skill scores, accuracies, top-k and reciprocal-rank scores',
   },
   {
-    pattern: /(nmse|mse|rmse|mae|error|nll|loss|rank|spread|skew|kurt|ks|distance|steps)(_|$)/,
+    pattern:
+      /(nmse|mse|rmse|mae|error|nll|loss|rank|spread|skew|skewness|kurt|ks|kl|gap|distance|steps|length_ratio|rejected)(_|$)/,
     direction: lower,
-    why: 'errors, negative log-likelihoods, losses, ranks and departures from Gaussianity',
+    why: 'errors, negative log-likelihoods, losses, ranks, gaps and departures from Gaussianity',
   },
 ];
 

@@ -106,7 +106,18 @@ export async function readRun(dir: string): Promise<RunContents> {
     ((await readJson(planPathOf(dir), problems, describePlanFault)) as PlanFile | undefined) ??
     null;
   const found = new Map<string, JobResult>();
-  for (const id of listJobDirs(dir)) {
+  let ids: string[] = [];
+  try {
+    ids = listJobDirs(dir);
+  } catch (error) {
+    const file = jobsDirOf(dir);
+    problems.push({
+      code: 'store-not-a-run',
+      file,
+      message: `cannot list job directories (${String(error)}); jobs/ must be a directory`,
+    });
+  }
+  for (const id of ids) {
     const result = await readResult(dir, id, problems);
     if (result) found.set(id, result);
   }

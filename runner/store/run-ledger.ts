@@ -13,6 +13,7 @@ import { touchLock, tryLock, unlock } from './job-lock.ts';
 import type { IndexDatabase } from './run-index.ts';
 import { indexResult, openIndexDatabase } from './run-index.ts';
 import type { JobResult } from './result.ts';
+import { TEMP_PREFIX } from './write-atomic.ts';
 import { toUnwritable, writeResultAtomic } from './write-result.ts';
 
 export interface LedgerOptions {
@@ -76,7 +77,12 @@ export class RunLedger implements JobLedger {
 
   prepare(id: string): AttemptPaths {
     const artifactsDir = artifactsDirOf(this.dir, id);
+    const jobDir = jobDirOf(this.dir, id);
     try {
+      // Temporary files of a write cut short by a crash: never a result, safe to drop.
+      for (const name of readdirSync(jobDir).filter((n) => n.startsWith(TEMP_PREFIX))) {
+        rmSync(join(jobDir, name), { force: true });
+      }
       rmSync(artifactsDir, { recursive: true, force: true });
       mkdirSync(artifactsDir, { recursive: true });
     } catch (error) {

@@ -7,7 +7,16 @@ import { readJournal, runFakeSweep, tempRun } from '../helpers/fake-sweep.ts';
 describe('failure isolation', () => {
   it('records each way a worker can fail with its reason and completes the rest', async () => {
     const { dir, journal } = tempRun();
-    const behaviours: Behaviour[] = ['throw', 'exit', 'kill', 'ok', 'oom', 'diverge', 'flaky', 'ok'];
+    const behaviours: Behaviour[] = [
+      'throw',
+      'exit',
+      'kill',
+      'ok',
+      'oom',
+      'diverge',
+      'flaky',
+      'ok',
+    ];
     const trains = behaviours.map((b, i) => fakeTrainSpec(i, b));
     const okTrain = trains[7]!;
     const flakyTrain = trains[6]!;
@@ -38,17 +47,24 @@ describe('failure isolation', () => {
     expect(byId.get(evals[0]!.id)?.status).toBe('done');
     expect(byId.get(evals[1]!.id)?.status).toBe('done');
     // The evaluation of a diverged encoder is recorded, not run.
-    expect(byId.get(evals[2]!.id)?.error?.reason).toContain(`train job ${divergedTrain.id} diverged`);
+    expect(byId.get(evals[2]!.id)?.error?.reason).toContain(
+      `train job ${divergedTrain.id} diverged`,
+    );
     expect(attempts.get(evals[2]!.id)).toBeUndefined();
   });
 
   it('stops a job that hangs past the time limit of its kind and does not retry it', async () => {
     const { dir, journal } = tempRun();
     const hang = fakeTrainSpec(0, 'hang');
-    const { summary } = await runFakeSweep(dir, journal, [hang], { retries: 2, timeLimitMs: (kind) => (kind === 'train' ? 4000 : 60_000) });
+    const { summary } = await runFakeSweep(dir, journal, [hang], {
+      retries: 2,
+      timeLimitMs: (kind) => (kind === 'train' ? 4000 : 60_000),
+    });
     const { results } = await readRun(dir);
     expect(summary).toMatchObject({ failed: 1, unfinished: 0 });
-    expect(results[0]?.error?.reason).toContain('time limit exceeded: ran past 0.0667 min (raise run.timeout.train');
+    expect(results[0]?.error?.reason).toContain(
+      'time limit exceeded: ran past 4 s (raise run.timeout.train',
+    );
     expect(readJournal(journal).get(hang.id)).toBe(1);
   });
 });

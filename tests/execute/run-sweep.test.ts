@@ -15,10 +15,14 @@ describe('runSweep with fake handlers', () => {
     expect(problems.filter((p) => p.code !== 'store-missing-plan')).toEqual([]);
     expect(results.map((r) => r.id).sort()).toEqual(jobs.map((j) => j.id).sort());
     // Each evaluation starts only after its train job finished.
-    const order = first.events.flatMap((e) => (e.type === 'started' || e.type === 'finished' ? [`${e.type}:${e.spec.id}`] : []));
+    const order = first.events.flatMap((e) =>
+      e.type === 'started' || e.type === 'finished' ? [`${e.type}:${e.spec.id}`] : [],
+    );
     for (const job of jobs) {
       if (job.kind !== 'evaluate') continue;
-      expect(order.indexOf(`started:${job.id}`)).toBeGreaterThan(order.indexOf(`finished:${job.trainId}`));
+      expect(order.indexOf(`started:${job.id}`)).toBeGreaterThan(
+        order.indexOf(`finished:${job.trainId}`),
+      );
     }
     const train = results.find((r) => r.kind === 'train');
     expect(train?.artifacts).toEqual(['artifacts/weights.txt']);

@@ -9,7 +9,9 @@ import type { JobSpec } from '../../runner/plan/job-spec.ts';
 import { RunLedger } from '../../runner/store/run-ledger.ts';
 
 /** The test-only handler module the workers load (see docs/runner.md). */
-export const fakeHandlersPath = fileURLToPath(new URL('../fixtures/execute/fake-handlers.ts', import.meta.url));
+export const fakeHandlersPath = fileURLToPath(
+  new URL('../fixtures/execute/fake-handlers.ts', import.meta.url),
+);
 
 /** A fresh temporary results directory and a journal file for the fake handlers. */
 export function tempRun(): { dir: string; journal: string } {

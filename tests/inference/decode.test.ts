@@ -100,7 +100,10 @@ describe('fitRidgeProbe', () => {
       math.multiply(lambda, math.identity(dIn)),
     );
     const gramArray = (gram as math.Matrix).toArray() as number[][];
-    const W = math.multiply<number[][]>(math.inv(gramArray), math.multiply(math.transpose(xc), yc));
+    const W = math.multiply<number[]>(
+      math.inv(gramArray),
+      math.multiply<number[]>(math.transpose(xc), yc),
+    );
     expect(maxDiff(probe.W.data, W.flat())).toBeLessThan(1e-10);
     const bias = ym.map((v, j) => v - xm.reduce((s, x, i) => s + x * W[i]![j]!, 0));
     expect(maxDiff(probe.bias, bias)).toBeLessThan(1e-10);

@@ -39,7 +39,8 @@ function find(
       (match.method === undefined || r.method === match.method) &&
       (match.metric === undefined || r.metric === match.metric) &&
       (match.source === undefined || r.source === match.source) &&
-      (match.level === undefined || r.level === match.level),
+      (match.level === undefined || r.level === match.level) &&
+      (match.unit === undefined || r.unit === match.unit),
   );
   expect(found).toHaveLength(1);
   return found[0]!;
@@ -116,11 +117,12 @@ describe('markBest', () => {
     const marks = markBest(rows);
     const mark = (m: Partial<MetricSummary> & { dim?: string }): string =>
       marks.get(summaryKey(find(rows, m))) ?? '';
-    const at = { dim: '4', metric: 'forecast_nmse', level: 1 } as const;
+    const at = { dim: '4', metric: 'forecast_nmse', level: 1, unit: 'step' } as const;
     expect(mark({ ...at, method: 'contrastive', source: 'fitted' })).toBe('best');
     expect(mark({ ...at, method: 'pca', source: 'fitted' })).toBe('');
-    // The oracle rows (true transition) are identical across methods: all tie with the best.
-    expect(mark({ ...at, method: 'pca', source: 'true' })).toBe('tie');
+    // The oracle rows (true model) are identical across methods: all tie with the best.
+    expect(mark({ ...at, metric: 'forecast_nmse_oracle', method: 'pca', source: 'true' })).toBe('tie');
+    expect(mark({ ...at, method: 'contrastive', source: 'critic' })).toBe('');
   });
 
   it('marks the highest success best and the coverage closest to its nominal value best', () => {
@@ -131,7 +133,7 @@ describe('markBest', () => {
     expect(of({ dim: '8', method: 'contrastive', metric: 'planning_success', level: '9-16' })).toBe(
       'best',
     );
-    expect(of({ dim: '8', method: SPECIAL_LABEL, metric: 'coverage_90' })).toBe('');
-    expect(['best', 'tie']).toContain(of({ dim: '8', method: 'pca', metric: 'coverage_90' }));
+    expect(of({ dim: '8', method: SPECIAL_LABEL, metric: 'coverage_90', level: 1 })).toBe('');
+    expect(['best', 'tie']).toContain(of({ dim: '8', method: 'pca', metric: 'coverage_90', level: 1 }));
   });
 });

@@ -3,10 +3,19 @@ import { mkdirSync, readFileSync, utimesSync, writeFileSync } from 'node:fs';
 import { hostname } from 'node:os';
 import { join } from 'node:path';
 import { describe, expect, it } from 'vitest';
-import { STALE_AFTER_MS, isStaleLock, readLiveOwner, tryLock, unlock } from '../../runner/store/job-lock.ts';
+import {
+  STALE_AFTER_MS,
+  isStaleLock,
+  readLiveOwner,
+  tryLock,
+  unlock,
+} from '../../runner/store/job-lock.ts';
 import { tempRun } from '../helpers/fake-sweep.ts';
 
-function owner(runId: string, pid = process.pid): { pid: number; hostname: string; runId: string; createdAt: string } {
+function owner(
+  runId: string,
+  pid = process.pid,
+): { pid: number; hostname: string; runId: string; createdAt: string } {
   return { pid, hostname: hostname(), runId, createdAt: new Date().toISOString() };
 }
 
@@ -18,7 +27,9 @@ function lockPath(): string {
 
 /** The pid of a process that has already exited (so no live process has it for now). */
 function deadPid(): number {
-  const child = spawnSync(process.execPath, ['-e', 'process.stdout.write(String(process.pid))'], { encoding: 'utf8' });
+  const child = spawnSync(process.execPath, ['-e', 'process.stdout.write(String(process.pid))'], {
+    encoding: 'utf8',
+  });
   return Number(child.stdout);
 }
 

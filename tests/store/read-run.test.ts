@@ -55,12 +55,20 @@ describe('writeResultAtomic and readRun', () => {
     mkdirSync(join(dir, 'jobs', 'bbbb'), { recursive: true });
     writeFileSync(join(dir, 'jobs', 'bbbb', 'result.json'), JSON.stringify(resultOf(good, 1)));
     mkdirSync(join(dir, 'jobs', 'cccc'), { recursive: true });
-    writeFileSync(join(dir, 'jobs', 'cccc', 'result.json'), JSON.stringify({ id: 'cccc', kind: 'train', status: 'finished' }));
+    writeFileSync(
+      join(dir, 'jobs', 'cccc', 'result.json'),
+      JSON.stringify({ id: 'cccc', kind: 'train', status: 'finished' }),
+    );
     const run = await readRun(dir);
     expect(run.plan).toBeNull();
     expect(run.results.map((r) => r.id)).toEqual([good.id]);
     expect(run.problems.map((p) => p.code).sort()).toEqual(
-      ['store-corrupt-file', 'store-corrupt-file', 'store-missing-plan', 'store-mismatched-id'].sort(),
+      [
+        'store-corrupt-file',
+        'store-corrupt-file',
+        'store-missing-plan',
+        'store-mismatched-id',
+      ].sort(),
     );
     expect(run.problems.find((p) => p.file.includes('cccc'))?.message).toContain('"status"');
   });
@@ -80,6 +88,8 @@ describe('writeResultAtomic and readRun', () => {
     const { dir } = tempRun();
     mkdirSync(dir, { recursive: true });
     writeFileSync(join(dir, 'jobs'), 'a file where the jobs directory belongs');
-    await expect(writeResultAtomic(dir, resultOf(fakeTrainSpec(3), 1))).rejects.toMatchObject({ code: 'store-unwritable' });
+    await expect(writeResultAtomic(dir, resultOf(fakeTrainSpec(3), 1))).rejects.toMatchObject({
+      code: 'store-unwritable',
+    });
   });
 });

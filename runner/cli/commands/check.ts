@@ -48,7 +48,9 @@ export const checkCommand: CliCommand = {
       const result = await loadExperiment(file, { cwd: io.cwd });
       if (result.ok) {
         const count = countJobs(result.config);
-        io.out(`${file}: ok — ${count.total} jobs (${count.train} train, ${count.evaluate} evaluate)`);
+        io.out(
+          `${file}: ok — ${count.total} jobs (${count.train} train, ${count.evaluate} evaluate)`,
+        );
         continue;
       }
       failed += 1;

@@ -18,12 +18,17 @@ function parseExpandArgs(args: string[], io: CliIo): ExpandArgs | undefined {
       args,
       allowPositionals: true,
       strict: true,
-      options: { json: { type: 'boolean', default: false }, set: { type: 'string', multiple: true, default: [] } },
+      options: {
+        json: { type: 'boolean', default: false },
+        set: { type: 'string', multiple: true, default: [] },
+      },
     });
     if (positionals.length === 1 && positionals[0] !== undefined) {
       return { file: positionals[0], json: values.json, overrides: values.set };
     }
-    io.err(`midpath expand: expected one experiment file, got ${positionals.length}\n${expandCommand.usage}`);
+    io.err(
+      `midpath expand: expected one experiment file, got ${positionals.length}\n${expandCommand.usage}`,
+    );
   } catch (cause) {
     io.err(`midpath expand: ${(cause as Error).message}\n${expandCommand.usage}`);
   }
@@ -52,7 +57,14 @@ export function tabulateJobs(jobs: readonly JobSpec[]): string[][] {
 /** Aligns rows into columns separated by two spaces, for a terminal. */
 function alignRows(rows: readonly string[][]): string {
   const widths = rows[0]?.map((_, c) => Math.max(...rows.map((r) => (r[c] ?? '').length))) ?? [];
-  return rows.map((r) => r.map((cell, c) => cell.padEnd(widths[c] ?? 0)).join('  ').trimEnd()).join('\n');
+  return rows
+    .map((r) =>
+      r
+        .map((cell, c) => cell.padEnd(widths[c] ?? 0))
+        .join('  ')
+        .trimEnd(),
+    )
+    .join('\n');
 }
 
 /** `midpath expand FILE`: lists the jobs an experiment file expands to. */

@@ -1,6 +1,8 @@
 import type { CliCommand } from '../command.ts';
 import { checkCommand } from './check.ts';
 import { expandCommand } from './expand.ts';
+import { runCommand } from './run.ts';
+import { statusCommand } from './status.ts';
 import { tableCommand } from './table.ts';
 
 /**
@@ -10,5 +12,7 @@ import { tableCommand } from './table.ts';
 export const commands: CliCommand[] = [
   checkCommand,
   expandCommand,
+  runCommand,
+  statusCommand,
   tableCommand,
 ];

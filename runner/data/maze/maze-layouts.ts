@@ -29,22 +29,25 @@ const OPEN_HALL = `
 #..........#
 ############`;
 
-/** Narrow aisles between shelving with dead ends: maze distance ≫ straight-line distance. */
+/**
+ * Narrow aisles between shelving, one route between any two cells (a tree: six dead ends,
+ * no loops), so maze distance ≫ straight-line distance.
+ */
 const LONG_CORRIDORS = `
 ###############
-#.....#.......#
-#.###.#.#####.#
-#.#...#.#...#.#
-#.#.###.#.#.#.#
-#.#.....#.#...#
-#.#######.###.#
-#.........#...#
-#####.###.#.###
-#...#.#...#...#
-#.#.#.#.#####.#
+#...#...#.....#
+###.#.#.#.###.#
+#.#...#.#.#...#
+#.#####.#.#.#.#
+#.....#.#.#.#.#
+#####.#.#.#.#.#
+#.....#.#.#.#.#
+#.###.#.###.#.#
 #.#...#.....#.#
-#.#########.#.#
-#...........#.#
+#.###.#######.#
+#...#.......#.#
+#.#.#########.#
+#.#...........#
 ###############`;
 
 /** The text drawing of a built-in layout. */

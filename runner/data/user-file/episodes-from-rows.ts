@@ -60,6 +60,7 @@ export function groupStepRows(
 }
 
 function checkStepOrder(g: StepRow[], key: string, file: string): void {
+  // Order first: a swapped pair would otherwise be reported as a gap.
   for (let i = 1; i < g.length; i++) {
     const prev = g[i - 1]!;
     const cur = g[i]!;
@@ -73,6 +74,10 @@ function checkStepOrder(g: StepRow[], key: string, file: string): void {
         hint: 'sort the rows of each episode by step, and give each step once',
       });
     }
+  }
+  for (let i = 1; i < g.length; i++) {
+    const prev = g[i - 1]!;
+    const cur = g[i]!;
     if (cur.step !== prev.step + 1) {
       throw new DataError({
         code: 'missing-steps',

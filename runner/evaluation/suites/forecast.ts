@@ -28,12 +28,12 @@ export function horizonsFor(context: EvalContext, source: SourceModel): number[]
 export function runForecastSuite(context: EvalContext): SuiteOutput {
   const metrics: MetricRow[] = [];
   const fittedError = new Map<string, number>(); // `${unit}:${h}` → fitted NMSE
-  const errors: { source: string; unit: string; h: number; nmse: number }[] = [];
+  const errors: { source: string; unit: string; h: number; nmse: number; n: number }[] = [];
   for (const source of context.models) {
     for (const h of horizonsFor(context, source)) {
       const rows = forecastRows(context, source, h);
       metrics.push(...rows.metrics);
-      errors.push({ source: source.source, unit: source.unit, h, nmse: rows.nmse });
+      errors.push({ source: source.source, unit: source.unit, h, nmse: rows.nmse, n: rows.n });
       if (source.source === 'fitted') fittedError.set(`${source.unit}:${h}`, rows.nmse);
     }
   }
@@ -56,14 +56,18 @@ function forecastRows(
   context: EvalContext,
   source: SourceModel,
   h: number,
-): { metrics: MetricRow[]; nmse: number } {
+): { metrics: MetricRow[]; nmse: number; n: number } {
   const { dim, spread, decoders } = context;
   const tasks = tasksFor(context, 'forecast', h, source.unit);
   const count = tasks.length;
   const extra = { n: count, unit: source.unit };
   const name = source.source;
   if (count === 0)
-    return { metrics: [metricRow('forecast', 'forecast_nmse', h, name, NaN, extra)], nmse: NaN };
+    return {
+      metrics: [metricRow('forecast', 'forecast_nmse', h, name, NaN, extra)],
+      nmse: NaN,
+      n: 0,
+    };
   const starts = gatherCodes(context.test, tasks, 0, dim);
   const truth = gatherCodes(context.test, tasks, h, dim);
   const { means } = forecastBatch(source.model, starts, count, h);
@@ -82,7 +86,7 @@ function forecastRows(
     metrics.push(metricRow('forecast', 'forecast_state_nmse_probe', h, name, probe, extra));
     metrics.push(metricRow('forecast', 'forecast_state_nmse_knn', h, name, knn, extra));
   }
-  return { metrics, nmse };
+  return { metrics, nmse, n: count };
 }
 
 /** The true model on the true latent state: the best possible forecast (Kalman prediction). */

@@ -13,15 +13,23 @@ import { loadRepresentation } from './representation-files.ts';
 
 /** The longest chain the step-unit tasks need, in steps (jump chains are redrawn to fit). */
 export function requiredSteps(config: EvalConfig): number {
-  const horizons = config.suites.includes('forecast') || config.suites.includes('calibration') ? config.horizons : [];
-  const spans = config.suites.includes('bridge') || config.suites.includes('calibration') ? config.waypoints.map((t) => t + 1) : [];
+  const horizons =
+    config.suites.includes('forecast') || config.suites.includes('calibration')
+      ? config.horizons
+      : [];
+  const spans =
+    config.suites.includes('bridge') || config.suites.includes('calibration')
+      ? config.waypoints.map((t) => t + 1)
+      : [];
   return Math.max(2, ...horizons.map((h) => h + 1), ...spans.map((s) => s + 1));
 }
 
 /** Runs one evaluation; artifacts land in `<suite>.json` files under ctx.artifactsDir. */
 export const evaluateJob: JobHandler<EvalJobSpec> = async (spec, ctx) => {
   const started = Date.now();
-  const dataset = await loadDataset(spec.train.data, spec.train.baseDir, { minSteps: requiredSteps(spec.eval) });
+  const dataset = await loadDataset(spec.train.data, spec.train.baseDir, {
+    minSteps: requiredSteps(spec.eval),
+  });
   ctx.log(`dataset ${dataset.name}: ${dataset.test.length} test episodes`);
   const rep = await loadRepresentation(ctx.artifactsOf(spec.trainId));
   ctx.log(`representation ${rep.method}, dim ${rep.dim}${rep.critic ? ', with critic' : ''}`);
@@ -38,6 +46,11 @@ export const evaluateJob: JobHandler<EvalJobSpec> = async (spec, ctx) => {
   return {
     status: 'done',
     metrics,
-    info: { artifacts: files, notes, seconds: (Date.now() - started) / 1000, suites: spec.eval.suites },
+    info: {
+      artifacts: files,
+      notes,
+      seconds: (Date.now() - started) / 1000,
+      suites: spec.eval.suites,
+    },
   };
 };

@@ -19,14 +19,20 @@ interface ArrayEntry {
   length: number;
 }
 
-type Header = Omit<SerialisedRepresentation, 'arrays'> & { format: string; arrays: Record<string, ArrayEntry> };
+type Header = Omit<SerialisedRepresentation, 'arrays'> & {
+  format: string;
+  arrays: Record<string, ArrayEntry>;
+};
 
 function arrayFile(name: string): string {
   return `representation.${name}.f32`;
 }
 
 /** Writes the representation into `dir`; returns the file names written (relative to dir). */
-export async function saveRepresentation(dir: string, serialised: SerialisedRepresentation): Promise<string[]> {
+export async function saveRepresentation(
+  dir: string,
+  serialised: SerialisedRepresentation,
+): Promise<string[]> {
   const arrays: Record<string, ArrayEntry> = {};
   const files: string[] = [];
   for (const [name, a] of Object.entries(serialised.arrays)) {
@@ -47,16 +53,28 @@ async function readHeader(dir: string): Promise<Header> {
   try {
     text = await readFile(file, 'utf8');
   } catch {
-    throw new TrainingError('representation-file', 'expected a saved representation, got no such file; rerun the train job', file);
+    throw new TrainingError(
+      'representation-file',
+      'expected a saved representation, got no such file; rerun the train job',
+      file,
+    );
   }
   let header: Header;
   try {
     header = JSON.parse(text) as Header;
   } catch (error) {
-    throw new TrainingError('representation-file', `expected JSON, got: ${(error as Error).message}`, file);
+    throw new TrainingError(
+      'representation-file',
+      `expected JSON, got: ${(error as Error).message}`,
+      file,
+    );
   }
   if (header.format !== FORMAT) {
-    throw new TrainingError('representation-file', `expected format '${FORMAT}', got '${String(header.format)}'; rerun the train job`, file);
+    throw new TrainingError(
+      'representation-file',
+      `expected format '${FORMAT}', got '${String(header.format)}'; rerun the train job`,
+      file,
+    );
   }
   return header;
 }
@@ -68,10 +86,18 @@ export async function readSerialised(dir: string): Promise<SerialisedRepresentat
   for (const [name, entry] of Object.entries(header.arrays)) {
     const file = join(dir, entry.file);
     const bytes = await readFile(file).catch(() => {
-      throw new TrainingError('representation-file', `expected the array file of '${name}', got no such file`, file);
+      throw new TrainingError(
+        'representation-file',
+        `expected the array file of '${name}', got no such file`,
+        file,
+      );
     });
     if (bytes.length !== entry.length * 4) {
-      throw new TrainingError('representation-file', `expected ${entry.length} float32 values (${entry.length * 4} bytes), got ${bytes.length} bytes`, file);
+      throw new TrainingError(
+        'representation-file',
+        `expected ${entry.length} float32 values (${entry.length * 4} bytes), got ${bytes.length} bytes`,
+        file,
+      );
     }
     const data = new Float32Array(entry.length);
     new Uint8Array(data.buffer).set(bytes);

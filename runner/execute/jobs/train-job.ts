@@ -16,7 +16,13 @@ import { saveRepresentation } from './representation-files.ts';
 export function trainingMetrics(result: FitResult): MetricRow[] {
   const last = result.curves[result.curves.length - 1];
   if (last === undefined) return [];
-  const row = (metric: string, value: number): MetricRow => ({ suite: 'training', metric, level: 'all', source: '', value });
+  const row = (metric: string, value: number): MetricRow => ({
+    suite: 'training',
+    metric,
+    level: 'all',
+    source: '',
+    value,
+  });
   return [
     row('final_train_loss', last.trainLoss),
     row('final_val_loss', last.valLoss),
@@ -36,7 +42,9 @@ function backendLabel(info: Record<string, unknown>): string {
 /** The handler of 'train' jobs. */
 export const trainJob: JobHandler<TrainJobSpec> = async (spec, ctx) => {
   const dataset = await loadDataset(spec.data, spec.baseDir);
-  ctx.log(`${spec.method.label}: ${dataset.name}, ${dataset.train.length} training episodes, obsDim ${dataset.obsDim}, d ${spec.dim}`);
+  ctx.log(
+    `${spec.method.label}: ${dataset.name}, ${dataset.train.length} training episodes, obsDim ${dataset.obsDim}, d ${spec.dim}`,
+  );
   const result = await fitMethod(spec.method, dataset, spec, {
     log: (line) => ctx.log(line),
     signal: ctx.signal,
@@ -44,12 +52,24 @@ export const trainJob: JobHandler<TrainJobSpec> = async (spec, ctx) => {
     readFile: async (path) => new Uint8Array(await readFile(path)),
   });
   const files = await saveRepresentation(ctx.artifactsDir, result.serialised);
-  await writeFile(join(ctx.artifactsDir, 'curves.json'), `${JSON.stringify(result.curves, null, 2)}\n`);
+  await writeFile(
+    join(ctx.artifactsDir, 'curves.json'),
+    `${JSON.stringify(result.curves, null, 2)}\n`,
+  );
   await writeFile(join(ctx.artifactsDir, 'spec.json'), `${JSON.stringify(spec, null, 2)}\n`);
-  const info = { ...result.info, backend: backendLabel(result.info), artifacts: [...files, 'curves.json', 'spec.json'] };
+  const info = {
+    ...result.info,
+    backend: backendLabel(result.info),
+    artifacts: [...files, 'curves.json', 'spec.json'],
+  };
   const metrics = trainingMetrics(result);
   if (result.status === 'diverged') {
-    return { status: 'diverged', metrics, info, reason: result.reason ?? 'the loss became NaN or infinite' };
+    return {
+      status: 'diverged',
+      metrics,
+      info,
+      reason: result.reason ?? 'the loss became NaN or infinite',
+    };
   }
   return { status: 'done', metrics, info };
 };

@@ -10,7 +10,7 @@ import { createRng } from '../../../runner/numeric/random.ts';
 
 export type Dense = number[][];
 
-export const mm = (a: Dense, b: Dense): Dense => math.multiply<Dense>(a, b);
+export const mm = (a: Dense, b: Dense): Dense => math.multiply<number[]>(a, b);
 export const tr = (a: Dense): Dense => math.transpose(a);
 export const inv = (a: Dense): Dense => math.inv(a);
 export const add = (a: Dense, b: Dense): Dense => math.add<Dense>(a, b);

@@ -1,0 +1,279 @@
+/**
+ * Throughput of the closed-form inference stage, printed as a table with ratios against
+ * references in the same run: bridge queries/s (batched, one-by-one, dense (Td)×(Td)
+ * reference, and numpy when `python3 -c 'import numpy'` works), forecast queries/s, exact
+ * kNN decoding on a 100,000 × 64 bank, and the Float64Array kernels against ml-matrix.
+ *
+ *   npx tsx bench/inference.ts           full run (about a minute on one core)
+ *   npx tsx bench/inference.ts --quick   smoke run with small sizes
+ */
+import { spawnSync } from 'node:child_process';
+import { fileURLToPath } from 'node:url';
+import { CholeskyDecomposition, Matrix, inverse } from 'ml-matrix';
+import {
+  criticTransition,
+  forecast,
+  forecastBatch,
+  knnDecode,
+  prepareBridge,
+  solveBridge,
+  type TransitionModel,
+} from '../runner/inference/index.ts';
+import { solveBridgeDense } from '../runner/inference/dense-bridge.ts';
+import { cholesky, inverseSpd, multiplyTransB } from '../runner/numeric/linalg/index.ts';
+import type { Mat } from '../runner/numeric/matrix.ts';
+import { createRng } from '../runner/numeric/random.ts';
+
+const quick = process.argv.includes('--quick');
+const minSeconds = quick ? 0.05 : 0.5;
+const rows: string[][] = [];
+
+/** Runs `fn` until `minSeconds` have passed; returns seconds per call. */
+function timePerCall(fn: () => unknown): number {
+  fn(); // warm-up (JIT)
+  let calls = 0;
+  const t0 = performance.now();
+  let elapsed = 0;
+  while (elapsed < minSeconds * 1000 || calls < 2) {
+    fn();
+    calls++;
+    elapsed = performance.now() - t0;
+  }
+  return elapsed / 1000 / calls;
+}
+
+const fmt = (x: number): string =>
+  x >= 100 ? x.toFixed(0) : x >= 1 ? x.toFixed(1) : x.toPrecision(2);
+const row = (what: string, rate: number, unit: string, ratio: string): void => {
+  rows.push([what, fmt(rate), unit, ratio]);
+};
+
+function randomMatrix(rows_: number, cols: number, seed: number, scale: number): Mat {
+  const rng = createRng(seed);
+  return {
+    rows: rows_,
+    cols,
+    data: Float64Array.from({ length: rows_ * cols }, () => scale * rng.normal()),
+  };
+}
+
+function benchBridge(): void {
+  const d = 32;
+  const T = 16;
+  const queries = quick ? 64 : 1000;
+  const c = 4;
+  // A critic matrix near the stationarity condition A Aᵀ ≈ (1 + 1/c) I (MATH.md §2).
+  const model = criticTransition(randomMatrix(d, d, 1, Math.sqrt((1 + 1 / c) / d)), c);
+  const starts = randomMatrix(queries, d, 2, 1).data;
+  const goals = randomMatrix(queries, d, 3, 1).data;
+  const label = `bridge d=${d} T=${T}`;
+
+  const batched = timePerCall(() => prepareBridge(model, T).solve(starts, goals, queries));
+  const batchedRate = queries / batched;
+  row(
+    `${label}: batched, factor once + ${queries} queries`,
+    batchedRate,
+    'queries/s',
+    '1 (reference)',
+  );
+  const solver = prepareBridge(model, T);
+  const solveOnly = timePerCall(() => solver.solve(starts, goals, queries));
+  row(
+    `${label}: batched, solve only (factor reused)`,
+    queries / solveOnly,
+    'queries/s',
+    ratio(queries / solveOnly, batchedRate),
+  );
+
+  const few = Math.min(queries, quick ? 8 : 40);
+  const oneByOne = timePerCall(() => {
+    for (let q = 0; q < few; q++)
+      solveBridge(
+        model,
+        starts.subarray(q * d, (q + 1) * d),
+        goals.subarray(q * d, (q + 1) * d),
+        1,
+        T,
+      );
+  });
+  row(
+    `${label}: one-by-one solveBridge (factor per query)`,
+    few / oneByOne,
+    'queries/s',
+    ratio(few / oneByOne, batchedRate),
+  );
+  const prepared = timePerCall(() => {
+    for (let q = 0; q < few; q++)
+      solver.solve(starts.subarray(q * d, (q + 1) * d), goals.subarray(q * d, (q + 1) * d), 1);
+  });
+  row(
+    `${label}: one-by-one solve on a prepared solver`,
+    few / prepared,
+    'queries/s',
+    ratio(few / prepared, batchedRate),
+  );
+
+  const dense = timePerCall(() => solveBridgeDense(model, starts, goals, queries, T));
+  row(
+    `${label}: dense (Td)×(Td) Cholesky, stacked RHS`,
+    queries / dense,
+    'queries/s',
+    ratio(queries / dense, batchedRate),
+  );
+  benchNumpy(model, T, starts, goals, queries, batchedRate, label);
+}
+
+function ratio(rate: number, reference: number): string {
+  return `${(rate / reference).toPrecision(3)}×`;
+}
+
+/** The same batch through bench/peers/bridge_numpy.py, when python3 has numpy. */
+function benchNumpy(
+  model: TransitionModel,
+  T: number,
+  starts: Float64Array,
+  goals: Float64Array,
+  queries: number,
+  ours: number,
+  label: string,
+): void {
+  const probe = spawnSync('python3', ['-c', 'import numpy'], { encoding: 'utf8' });
+  if (probe.status !== 0) {
+    rows.push([
+      `${label}: numpy`,
+      '—',
+      'skipped',
+      'python3 has no numpy (apt-get install python3-numpy)',
+    ]);
+    return;
+  }
+  const post = prepareBridge(model, T).solve(starts, goals, queries);
+  const job = {
+    d: model.dim,
+    T,
+    queries,
+    F: Array.from(model.F.data),
+    Q: Array.from(model.Q.data),
+    starts: Array.from(starts),
+    goals: Array.from(goals),
+    means: Array.from(post.means),
+    covariances: post.covariances.flatMap((m) => Array.from(m.data)),
+    repeats: quick ? 2 : 5,
+  };
+  const script = fileURLToPath(new URL('./peers/bridge_numpy.py', import.meta.url));
+  const run = spawnSync('python3', [script], {
+    input: JSON.stringify(job),
+    encoding: 'utf8',
+    maxBuffer: 1 << 26,
+  });
+  if (run.status !== 0) {
+    rows.push([`${label}: numpy`, '—', 'failed', run.stderr.trim().split('\n').pop() ?? '']);
+    return;
+  }
+  const out = JSON.parse(run.stdout) as {
+    seconds: number;
+    maxMeanDiff: number;
+    maxCovDiff: number;
+    numpy: string;
+  };
+  const rate = queries / out.seconds;
+  row(
+    `${label}: numpy ${out.numpy} dense solve, stacked RHS`,
+    rate,
+    'queries/s',
+    `${ratio(rate, ours)} (ours ${ratio(ours, rate)} numpy)`,
+  );
+  rows.push([
+    `  agreement with numpy`,
+    '',
+    '',
+    `max |Δmean| ${out.maxMeanDiff.toExponential(1)}, max |Δcov| ${out.maxCovDiff.toExponential(1)}`,
+  ]);
+}
+
+function benchForecast(): void {
+  const d = 32;
+  const n = 8;
+  const count = quick ? 200 : 10_000;
+  const model = criticTransition(randomMatrix(d, d, 4, Math.sqrt(1.25 / d)), 4);
+  const starts = randomMatrix(count, d, 5, 1).data;
+  const batch = timePerCall(() => forecastBatch(model, starts, count, n));
+  row(
+    `forecast d=${d} n=${n}: batched (${count} starts)`,
+    count / batch,
+    'queries/s',
+    '1 (reference)',
+  );
+  const few = quick ? 10 : 100;
+  const single = timePerCall(() => {
+    for (let q = 0; q < few; q++) forecast(model, starts.subarray(q * d, (q + 1) * d), n);
+  });
+  row(
+    `forecast d=${d} n=${n}: one-by-one`,
+    few / single,
+    'queries/s',
+    ratio(few / single, count / batch),
+  );
+}
+
+function benchKnn(): void {
+  const bankCount = 100_000;
+  const dim = 64;
+  const queryCount = quick ? 16 : 256;
+  const k = 5;
+  const rng = createRng(6);
+  const bank = Float32Array.from({ length: bankCount * dim }, () => rng.normal());
+  const queries = Float64Array.from({ length: queryCount * dim }, () => rng.normal());
+  const seconds = timePerCall(() => knnDecode(bank, bankCount, queries, queryCount, dim, k));
+  row(
+    `kNN decode, bank ${bankCount}×${dim} (Float32), k=${k}`,
+    queryCount / seconds,
+    'queries/s',
+    `${fmt((queryCount * bankCount) / seconds / 1e6)} M distances/s`,
+  );
+}
+
+function benchKernels(): void {
+  const n = 64;
+  const b = randomMatrix(n, n, 7, 1);
+  const spd = multiplyTransB(b, b);
+  for (let i = 0; i < n; i++) spd.data[i * n + i] = spd.data[i * n + i]! + n;
+  const ml = new Matrix(
+    Array.from({ length: n }, (_, i) => Array.from(spd.data.subarray(i * n, (i + 1) * n))),
+  );
+  const ours = timePerCall(() => cholesky(spd));
+  const theirs = timePerCall(() => new CholeskyDecomposition(ml).lowerTriangularMatrix);
+  row(
+    `Cholesky ${n}×${n}: Float64Array kernel`,
+    1 / ours,
+    'factorisations/s',
+    `${ratio(theirs, ours)} ml-matrix speed`,
+  );
+  const oursInv = timePerCall(() => inverseSpd(spd));
+  const theirsInv = timePerCall(() => inverse(ml));
+  row(
+    `SPD inverse ${n}×${n}: Cholesky kernel`,
+    1 / oursInv,
+    'inverses/s',
+    `${ratio(theirsInv, oursInv)} ml-matrix speed`,
+  );
+}
+
+function printTable(): void {
+  const header = ['measurement', 'rate', 'unit', 'ratio / note'];
+  const widths = header.map((h, i) => Math.max(h.length, ...rows.map((r) => (r[i] ?? '').length)));
+  const line = (r: string[]): string =>
+    r.map((cell, i) => (i === 1 ? cell.padStart(widths[i]!) : cell.padEnd(widths[i]!))).join('  ');
+  console.log(line(header));
+  console.log(widths.map((w) => '-'.repeat(w)).join('  '));
+  for (const r of rows) console.log(line(r));
+}
+
+console.log(
+  `Midpath inference bench${quick ? ' (--quick)' : ''}: node ${process.version}, one thread`,
+);
+benchBridge();
+benchForecast();
+benchKnn();
+benchKernels();
+printTable();

@@ -1,0 +1,95 @@
+import { describe, expect, it } from 'vitest';
+import { buildContext } from '../../runner/evaluation/build-context.ts';
+import { tasksFor } from '../../runner/evaluation/context.ts';
+import { evaluateRepresentation } from '../../runner/evaluation/evaluate.ts';
+import { drawChainTasks, taskRng } from '../../runner/evaluation/tasks.ts';
+import {
+  evalConfig,
+  evalSpec,
+  identityRepresentation,
+  linearRepresentation,
+  stateDataset,
+} from './fixtures.ts';
+
+// Paired comparisons need every method and training seed to answer the same evaluation
+// tasks (MATH.md §4; Agarwal et al. 2021 on paired designs). These tests change everything
+// but the evaluation seed and the data, and require identical tasks.
+describe('every method in one experiment sees the same evaluation tasks', () => {
+  const dataset = stateDataset({ stateDim: 3, steps: 30, train: 10, test: 40, seed: 9 });
+  const config = evalConfig({ queries: 50 });
+  const settings = { config, discount: 0.8, scale: 1 };
+  const a = buildContext(identityRepresentation(3, { a: 1.4, c: 1 }), dataset, settings);
+  const b = buildContext(linearRepresentation(3, 5, 17), dataset, settings);
+
+  it('draws identical chains for different methods and dimensions', () => {
+    for (const [kind, n, unit] of [
+      ['forecast', 3, 'step'],
+      ['forecast', 2, 'jump'],
+      ['bridge', 4, 'step'],
+      ['bridge', 2, 'jump'],
+    ] as const) {
+      const ta = tasksFor(a, kind, n, unit);
+      expect(ta.length).toBeGreaterThan(0);
+      expect(tasksFor(b, kind, n, unit)).toEqual(ta);
+    }
+  });
+
+  it('changes the tasks only when the evaluation seed changes', () => {
+    const other = buildContext(identityRepresentation(3), dataset, {
+      ...settings,
+      config: { ...config, seed: 1 },
+    });
+    expect(tasksFor(other, 'bridge', 4, 'step')).not.toEqual(tasksFor(a, 'bridge', 4, 'step'));
+  });
+
+  it('gives identical task-only rows across methods and training seeds end to end', async () => {
+    const c = evalConfig({ suites: ['forecast', 'bridge'], queries: 60 });
+    const first = await evaluateRepresentation(
+      identityRepresentation(3),
+      dataset,
+      evalSpec(c, 0, 'identity'),
+    );
+    const second = await evaluateRepresentation(
+      linearRepresentation(3, 4, 2),
+      dataset,
+      evalSpec(c, 7, 'random-linear'),
+    );
+    // The oracle rows depend on the tasks and the data only, never on the representation.
+    const oracle = (rows: typeof first.metrics): number[] =>
+      rows.filter((r) => r.metric.endsWith('_oracle')).map((r) => r.value);
+    expect(oracle(first.metrics).length).toBe(4);
+    expect(oracle(second.metrics)).toEqual(oracle(first.metrics));
+  });
+
+  it('redraws chains that run past the episode end instead of clipping them', () => {
+    // MATH.md §1: an offset past the end is redrawn. A chain of 3 geometric jumps has a
+    // negative-binomial span, P(S = s) = C(s-1, 2)(1-γ)³γ^(s-3) (Feller 1968, §VI.8); redrawing
+    // conditions it on S ≤ 11 and the start is then uniform over the 12 - S places, so
+    // P(chain ends on the last step) = E[1/(12 - S) | S ≤ 11]. Clipping would pile mass there.
+    const gamma = 0.7;
+    const count = 4000;
+    const tasks = drawChainTasks(
+      [12, 12, 12],
+      { transitions: 3, unit: 'jump', discount: gamma, count },
+      taskRng(3, 'x'),
+    );
+    expect(tasks.length).toBe(count);
+    for (const t of tasks) {
+      expect(t.times[3]!).toBeLessThanOrEqual(11);
+      for (let i = 0; i < 3; i++) expect(t.times[i + 1]! - t.times[i]!).toBeGreaterThanOrEqual(1);
+    }
+    let mass = 0;
+    let expected = 0;
+    for (let span = 3; span <= 11; span++) {
+      const p = (((span - 1) * (span - 2)) / 2) * (1 - gamma) ** 3 * gamma ** (span - 3);
+      mass += p;
+      expected += p / (12 - span);
+    }
+    expected /= mass;
+    const observed = tasks.filter((t) => t.times[3] === 11).length / count;
+    // 4 binomial standard deviations (common practice).
+    expect(Math.abs(observed - expected)).toBeLessThan(
+      4 * Math.sqrt((expected * (1 - expected)) / count),
+    );
+  });
+});
