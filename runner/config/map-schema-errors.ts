@@ -132,7 +132,7 @@ function draftError(e: ErrorObject, root: SchemaNode): Draft | undefined {
           ? 'write a list, e.g. `[a, b]` or one `- item` per line'
           : want === 'integer' && typeof e.data === 'number'
             ? 'use a whole number'
-            : undefined;
+            : (e.parentSchema as SchemaNode).description;
       const draft: Draft = {
         code: 'wrong-type',
         path,
@@ -165,12 +165,13 @@ function draftError(e: ErrorObject, root: SchemaNode): Draft | undefined {
     }
     case 'uniqueItems': {
       const { i, j } = e.params as { i: number; j: number };
+      const [first, second] = [Math.min(i, j), Math.max(i, j)];
       const list = e.data as unknown[];
       return {
         code: 'duplicate-value',
-        path: [...path, i],
+        path: [...path, second],
         prefer: 'value',
-        message: `expected distinct values, got ${JSON.stringify(list[i])} twice (entries ${j + 1} and ${i + 1})`,
+        message: `expected distinct values, got ${JSON.stringify(list[second])} twice (entries ${first + 1} and ${second + 1})`,
         hint: 'remove the repeated entry',
       };
     }
@@ -218,7 +219,9 @@ function foldAnyOf(errors: ErrorObject[]): { kept: ErrorObject[]; drafts: Draft[
       const path = parsePointer(e.instancePath, undefined).map((s) =>
         /^\d+$/.test(String(s)) ? Number(s) : s,
       );
+      const hint = (e.parentSchema as SchemaNode).description;
       drafts.push({
+        ...(hint !== undefined ? { hint } : {}),
         code: 'wrong-type',
         path,
         prefer: 'value',

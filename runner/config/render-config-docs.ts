@@ -109,8 +109,9 @@ file; \`midpath expand FILE\` lists the jobs it becomes. Error codes: [errors.md
   job serves every value of an axis they ignore. An evaluate job hashes its train job's id
   and \`eval\`, so changing only evaluation settings reuses every trained encoder.
 - **Settings** — each job lists the swept paths that matter to it with their values. A
-  mapping value appears as its \`source\` when that tells the values apart, otherwise as the
-  values of the keys in which the listed mappings differ, joined by \`/\`.
+  mapping value appears as the value of the first key that alone tells the listed mappings
+  apart (\`source\`, then \`kind\`, then \`name\`, then the others), otherwise as the values
+  of every key in which they differ, joined by \`/\`.
 - \`--set path=value\` on the command line overrides any key after merging; the value is YAML
   (\`--set sweep.axes.dim=[4,8]\`) typed by the schema.
 - The temperature of InfoNCE logits is confounded with \`train.scale\` (rescaling ψ by 1/√τ

@@ -223,6 +223,8 @@ export interface ExperimentFile {
    *
    * @minItems 1
    * @maxItems 32
+   *
+   * Items: A method name such as `pca`, or a mapping `{ name: pca, label: PCA }`.
    */
   methods?: (
     | ('contrastive' | 'pca' | 'random' | 'raw' | 'sfa' | 'autoencoder' | 'precomputed')

@@ -103,22 +103,24 @@ export function describeDataset(ds: Dataset): DatasetSummary {
 
 /**
  * ASCII preview of image frames side by side (rows of characters, darkest ' ' to
- * brightest '@'), scaled by the min and max of the frames shown. frames: [n][h·w].
+ * brightest '@'). The scale runs from the 80th percentile to the maximum of the frames
+ * shown, so sensor noise on a dark background stays blank and the object stands out.
+ * frames: [n][h·w].
  */
 export function renderAsciiFrames(frames: Float32Array[], shape: [number, number]): string[] {
   const ramp = ' .:-=+*#%@';
   const [h, w] = shape;
-  let lo = Infinity;
-  let hi = -Infinity;
-  for (const f of frames) for (const v of f) [lo, hi] = [Math.min(lo, v), Math.max(hi, v)];
+  const sorted = frames.flatMap((f) => Array.from(f)).sort((a, b) => a - b);
+  const lo = sorted[Math.floor(0.8 * (sorted.length - 1))] ?? 0;
+  const hi = sorted[sorted.length - 1] ?? 1;
   const span = hi > lo ? hi - lo : 1;
   const lines: string[] = [];
   for (let r = 0; r < h; r++) {
     const parts = frames.map((f) => {
       let s = '';
       for (let c = 0; c < w; c++) {
-        const level = Math.floor(((f[r * w + c]! - lo) / span) * (ramp.length - 1) + 0.5);
-        s += ramp[level]!.repeat(2); // two characters per pixel keep the aspect ratio
+        const x = Math.max(0, (f[r * w + c]! - lo) / span);
+        s += ramp[Math.min(ramp.length - 1, Math.floor(x * (ramp.length - 1) + 0.5))]!.repeat(2); // two characters per pixel keep the aspect ratio
       }
       return s;
     });

@@ -94,7 +94,7 @@ async function attemptOnce(
     heapLimitMb: settings.heapLimitMb,
     env: settings.env,
   });
-  const untrack = settings.control.track(handle.cancel);
+  const untrack = settings.control.track(() => handle.cancel());
   try {
     return await handle.result;
   } finally {

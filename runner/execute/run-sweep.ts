@@ -88,7 +88,7 @@ export async function runSweep(jobs: JobSpec[], options: SweepOptions): Promise<
 
   const queue = new PQueue({ concurrency: workers });
   const finals = new Map<string, Promise<Final>>();
-  let fatal: unknown;
+  let fatal: Error | undefined;
 
   async function claimAndRun(spec: JobSpec, work: () => Promise<Final>): Promise<Final> {
     for (let announced = false; ; announced = true) {
@@ -135,7 +135,7 @@ export async function runSweep(jobs: JobSpec[], options: SweepOptions): Promise<
       if (!initial.has(spec.id)) initial.set(spec.id, ledger.stored(spec.id));
       final = settleJob(spec).catch((error: unknown) => {
         // A store error (disk full, unwritable) stops the sweep; it is rethrown at the end.
-        fatal ??= error;
+        fatal ??= error instanceof Error ? error : new Error(String(error));
         control.drain();
         return 'interrupted' as const;
       });

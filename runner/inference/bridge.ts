@@ -11,8 +11,8 @@ import type { Mat } from '../numeric/matrix.ts';
 import { cholesky } from '../numeric/linalg/cholesky.ts';
 import {
   multiply,
-  multiplyInto,
   multiplyTransA,
+  multiplyTransB,
   multiplyTransBInto,
   symmetrizeInPlace,
   transpose,
@@ -22,7 +22,7 @@ import {
   solveLower,
   solveLowerRowsInPlace,
   solveLowerTranspose,
-  solveLowerTransposeRowsInPlace,
+  solveUpperRowsInPlace,
 } from '../numeric/linalg/triangular.ts';
 import { centreRows, checkFinite, checkInteger, checkLength, checkModel } from './validate.ts';
 
@@ -34,6 +34,21 @@ export interface BridgeSolver {
   covariances: Mat[];
   /** Posterior for `queries` start/goal pairs, each [queries, dim]; means [queries, T, dim]. */
   solve(starts: ArrayLike<number>, goals: ArrayLike<number>, queries: number): BridgePosterior;
+}
+
+/** What one factorisation keeps for the solves; every product in the hot path is A Bᵀ form. */
+interface BridgeFactor {
+  model: TransitionModel;
+  /** P = Q⁻¹F [d, d] and Pᵀ. */
+  p: Mat;
+  pT: Mat;
+  /** L_t and U_t = L_tᵀ, t = 1 … T, with D_t = L_t L_tᵀ. */
+  lower: Mat[];
+  upper: Mat[];
+  /** V_t = L_t⁻¹ Λ_{t,t+1} and V_tᵀ, t = 1 … T−1. */
+  coupling: Mat[];
+  couplingT: Mat[];
+  covariances: Mat[];
 }
 
 /** Factors the block-tridiagonal precision of MATH.md §3 once for `model` and `T` waypoints. */
@@ -53,12 +68,12 @@ export function prepareBridge(model: TransitionModel, T: number): BridgeSolver {
   // Forward: D_1 = Λ_11, D_t = Λ_tt − Λ_{t,t−1} D_{t−1}⁻¹ Λ_{t−1,t} = Λ_tt − V_{t−1}ᵀ V_{t−1},
   // with D_t = L_t L_tᵀ and V_t = L_t⁻¹ Λ_{t,t+1} = −L_t⁻¹ Pᵀ.
   const pT = transpose(p);
-  const factors: Mat[] = [];
-  const coupling: Mat[] = []; // V_t, t = 1 … T−1
+  const lower: Mat[] = [];
+  const coupling: Mat[] = [];
   let pivot = diag;
   for (let t = 0; t < T; t++) {
     const l = cholesky(pivot, `bridge pivot D_${t + 1}`);
-    factors.push(l);
+    lower.push(l);
     if (t === T - 1) break;
     const v = solveLower(l, pT);
     for (let i = 0; i < v.data.length; i++) v.data[i] = -v.data[i]!;
@@ -66,13 +81,21 @@ export function prepareBridge(model: TransitionModel, T: number): BridgeSolver {
     const vv = multiplyTransA(v, v);
     pivot = symmetrizeInPlace({ rows: d, cols: d, data: diag.data.map((x, i) => x - vv.data[i]!) });
   }
-  const covariances = marginalCovariances(factors, coupling);
+  const factor: BridgeFactor = {
+    model,
+    p,
+    pT,
+    lower,
+    upper: lower.map(transpose),
+    coupling,
+    couplingT: coupling.map(transpose),
+    covariances: marginalCovariances(lower, coupling),
+  };
   return {
     dim: d,
     T,
-    covariances,
-    solve: (starts, goals, queries) =>
-      solveQueries(model, p, factors, coupling, covariances, starts, goals, queries),
+    covariances: factor.covariances,
+    solve: (starts, goals, queries) => solveQueries(factor, starts, goals, queries),
   };
 }
 
@@ -80,15 +103,15 @@ export function prepareBridge(model: TransitionModel, T: number): BridgeSolver {
  * Backward covariance recursion: Σ_T = D_T⁻¹, Σ_t = D_t⁻¹ + G_t Σ_{t+1} G_tᵀ with
  * G_t = D_t⁻¹ Λ_{t,t+1} = L_t⁻ᵀ V_t (MATH.md §3). Runs once per factorisation.
  */
-function marginalCovariances(factors: Mat[], coupling: Mat[]): Mat[] {
-  const T = factors.length;
+function marginalCovariances(lower: Mat[], coupling: Mat[]): Mat[] {
+  const T = lower.length;
   const out: Mat[] = new Array<Mat>(T);
-  let next = inverseFromCholesky(factors[T - 1]!);
+  let next = inverseFromCholesky(lower[T - 1]!);
   out[T - 1] = next;
   for (let t = T - 2; t >= 0; t--) {
-    const l = factors[t]!;
+    const l = lower[t]!;
     const g = solveLowerTranspose(l, coupling[t]!);
-    const gsg = multiply(multiply(g, next), transpose(g));
+    const gsg = multiplyTransB(multiply(g, next), g);
     const inv = inverseFromCholesky(l);
     next = symmetrizeInPlace({
       rows: l.rows,
@@ -102,17 +125,14 @@ function marginalCovariances(factors: Mat[], coupling: Mat[]): Mat[] {
 
 /** Forward and back substitution for a batch of right-hand sides stored as rows ([queries, d]). */
 function solveQueries(
-  model: TransitionModel,
-  p: Mat,
-  factors: Mat[],
-  coupling: Mat[],
-  covariances: Mat[],
+  f: BridgeFactor,
   starts: ArrayLike<number>,
   goals: ArrayLike<number>,
   queries: number,
 ): BridgePosterior {
+  const { model } = f;
   const d = model.dim;
-  const T = factors.length;
+  const T = f.lower.length;
   checkInteger('solveBridge: queries', queries, 0);
   checkLength('solveBridge: starts', starts.length, queries * d, `[${queries}, ${d}]`);
   checkLength('solveBridge: goals', goals.length, queries * d, `[${queries}, ${d}]`);
@@ -125,26 +145,26 @@ function solveQueries(
   const tmp = new Float64Array(size);
   for (let t = 0; t < T; t++) {
     const y = new Float64Array(size);
-    if (t === 0) multiplyTransBInto(s0, p.data, y, queries, d, d); // h_1 = Q⁻¹F ψ₀ (row form ψ₀ Pᵀ)
+    if (t === 0) multiplyTransBInto(s0, f.p.data, y, queries, d, d); // h_1 = Q⁻¹F ψ₀ (rows: ψ₀ Pᵀ)
     if (t === T - 1) {
-      multiplyInto(sg, p.data, tmp, queries, d, d); // h_T += Fᵀ Q⁻¹ ψ_g (row form ψ_g P)
+      multiplyTransBInto(sg, f.pT.data, tmp, queries, d, d); // h_T += FᵀQ⁻¹ ψ_g (rows: ψ_g P)
       for (let i = 0; i < size; i++) y[i] = y[i]! + tmp[i]!;
     }
     if (t > 0) {
-      multiplyInto(z[t - 1]!, coupling[t - 1]!.data, tmp, queries, d, d); // V_{t−1}ᵀ z_{t−1}
+      multiplyTransBInto(z[t - 1]!, f.couplingT[t - 1]!.data, tmp, queries, d, d); // V_{t−1}ᵀ z_{t−1}
       for (let i = 0; i < size; i++) y[i] = y[i]! - tmp[i]!;
     }
-    solveLowerRowsInPlace(factors[t]!.data, d, y, queries);
+    solveLowerRowsInPlace(f.lower[t]!.data, d, y, queries);
     z.push(y);
   }
   // Backward: μ_T = L_T⁻ᵀ z_T, μ_t = L_t⁻ᵀ (z_t − V_t μ_{t+1}); z_t is overwritten by μ_t.
   for (let t = T - 1; t >= 0; t--) {
     const mu = z[t]!;
     if (t < T - 1) {
-      multiplyTransBInto(z[t + 1]!, coupling[t]!.data, tmp, queries, d, d);
+      multiplyTransBInto(z[t + 1]!, f.coupling[t]!.data, tmp, queries, d, d);
       for (let i = 0; i < size; i++) mu[i] = mu[i]! - tmp[i]!;
     }
-    solveLowerTransposeRowsInPlace(factors[t]!.data, d, mu, queries);
+    solveUpperRowsInPlace(f.upper[t]!.data, d, mu, queries);
   }
   const means = new Float64Array(queries * T * d); // [queries, T, d]
   for (let t = 0; t < T; t++) {
@@ -154,7 +174,7 @@ function solveQueries(
       for (let j = 0; j < d; j++) means[o + j] = mu[q * d + j]! + model.mean[j]!;
     }
   }
-  return { means, covariances };
+  return { means, covariances: f.covariances };
 }
 
 /** Bridge posterior in one call: `prepareBridge(model, T).solve(starts, goals, queries)`. */

@@ -111,7 +111,7 @@ export async function readProjection(dir: string, result: JobResult): Promise<Pr
     ? body.state.map((s) => (finiteNumbers(s) ? s[0] : undefined))
     : [];
   if (state.length === pairs.length && state.every((v) => typeof v === 'number')) {
-    return { points: pairs, colour: state as number[], colourBy: 'true state, first coordinate' };
+    return { points: pairs, colour: state, colourBy: 'true state, first coordinate' };
   }
   const step = body.step;
   if (finiteNumbers(step) && step.length === pairs.length)

@@ -55,14 +55,39 @@ export function openIndexDatabase(dir: string): IndexDatabase {
   return db;
 }
 
-function insertResult(db: IndexDatabase, result: JobResult): number {
-  const spec = result.spec;
-  db.prepare('DELETE FROM jobs WHERE id = ?').run(result.id);
-  db.prepare(
-    `INSERT INTO jobs (id, kind, status, experiment, method, seed, setting, train_id, wall_seconds,
+interface Statements {
+  deleteJob: Database.Statement;
+  insertJob: Database.Statement;
+  insertMetric: Database.Statement;
+}
+
+// Prepared once per connection: preparing costs more than running these small statements.
+const statements = new WeakMap<IndexDatabase, Statements>();
+
+function statementsOf(db: IndexDatabase): Statements {
+  let found = statements.get(db);
+  if (!found) {
+    found = {
+      deleteJob: db.prepare('DELETE FROM jobs WHERE id = ?'),
+      insertJob: db.prepare(
+        `INSERT INTO jobs (id, kind, status, experiment, method, seed, setting, train_id, wall_seconds,
        peak_rss_bytes, started_at, reason, attempts)
      VALUES (@id, @kind, @status, @experiment, @method, @seed, @setting, @trainId, @wall, @peak, @startedAt, @reason, @attempts)`,
-  ).run({
+      ),
+      insertMetric: db.prepare(
+        'INSERT INTO metrics (job_id, suite, metric, level, source, value, n) VALUES (?, ?, ?, ?, ?, ?, ?)',
+      ),
+    };
+    statements.set(db, found);
+  }
+  return found;
+}
+
+function insertResult(db: IndexDatabase, result: JobResult): number {
+  const spec = result.spec;
+  const { deleteJob, insertJob, insertMetric } = statementsOf(db);
+  deleteJob.run(result.id);
+  insertJob.run({
     id: result.id,
     kind: result.kind,
     status: result.status,
@@ -77,11 +102,8 @@ function insertResult(db: IndexDatabase, result: JobResult): number {
     reason: result.error?.reason ?? null,
     attempts: result.error?.attempts ?? null,
   });
-  const metric = db.prepare(
-    'INSERT INTO metrics (job_id, suite, metric, level, source, value, n) VALUES (?, ?, ?, ?, ?, ?, ?)',
-  );
   for (const row of result.metrics) {
-    metric.run(
+    insertMetric.run(
       result.id,
       row.suite,
       row.metric,

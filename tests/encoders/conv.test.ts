@@ -20,8 +20,8 @@ describe('conv encoder', () => {
     const [k1, c1, k2, c2, wd, bd] = encoder.variables;
     const expected = tf.tidy(() => {
       let t: tf.Tensor4D = tf.reshape(x, [5, h, w, 1]);
-      t = tf.relu(tf.add(tf.conv2d(t, tf.reshape(k1!, [3, 3, 1, 2]), 2, 1), c1!));
-      t = tf.relu(tf.add(tf.conv2d(t, tf.reshape(k2!, [3, 3, 2, 3]), 2, 1), c2!));
+      t = tf.relu(tf.add(tf.conv2d(t, tf.reshape(k1!, [3, 3, 1, 2]), 2, 1), c1!)) as tf.Tensor4D;
+      t = tf.relu(tf.add(tf.conv2d(t, tf.reshape(k2!, [3, 3, 2, 3]), 2, 1), c2!)) as tf.Tensor4D;
       return tf.add(tf.matMul(tf.reshape(t, [5, -1]), wd!), bd!).arraySync() as number[][];
     });
     const got = tf.tidy(() => encoder.apply(x).arraySync());

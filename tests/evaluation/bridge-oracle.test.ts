@@ -53,10 +53,10 @@ describe('bridge_nmse_oracle', () => {
     const big = jointCovariance(F, P, [0, 1, 2, 3, 4]); // s_0, three waypoints, s_4
     const observed = [0, 1, 8, 9];
     const hidden = [2, 3, 4, 5, 6, 7];
-    const gain = multiply(
+    const gain: Matrix = multiply(
       hidden.map((h) => observed.map((o) => big[h]![o]!)),
       inv(observed.map((a) => observed.map((b) => big[a]![b]!))),
-    ) as Matrix;
+    );
 
     const all = dataset.test.flatMap((e) => Array.from(e.state!));
     const mean = [0, 1].map(

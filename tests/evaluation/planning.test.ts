@@ -94,6 +94,20 @@ describe('planning', () => {
     ).toBe(3);
   });
 
+  it('follows bridge waypoints that become straight-line interpolation as c grows', () => {
+    // MATH.md §3: with A = √(1+1/c) I and c → ∞ the bridge mean is linear interpolation
+    // between start and goal; in an open room those targets lie on the segment, inside the
+    // box spanned by start and goal, so every trial succeeds, including T ≥ 2 waypoints.
+    const maze = coordinateMaze(OPEN_ROOM);
+    const config = evalConfig({ suites: ['planning'], transitions: ['critic'], planning: { tasks: 12, budget: 3 } });
+    const c = 1e6;
+    const rep = identityRepresentation(2, { a: Math.sqrt(1 + 1 / c), c });
+    const context = buildContext(rep, mazeDataset(maze), { config, discount: 0.8, scale: 1 });
+    const rows = runPlanningSuite(context).metrics.filter((m) => m.metric === 'planning_success');
+    expect(rows.map((r) => r.level)).toContain('8-10'); // shortest ≥ 8 → T = 2 waypoints
+    for (const r of rows) expect(r.value).toBe(1);
+  });
+
   it('stratifies tasks into equal distance bins whose labels hold their shortest paths', () => {
     const maze = coordinateMaze(OPEN_ROOM);
     const tasks = drawPlanningTasks(maze, 30, taskRng(0, 'planning'));

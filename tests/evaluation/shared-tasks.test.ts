@@ -2,6 +2,7 @@ import { describe, expect, it } from 'vitest';
 import { buildContext } from '../../runner/evaluation/build-context.ts';
 import { tasksFor } from '../../runner/evaluation/context.ts';
 import { evaluateRepresentation } from '../../runner/evaluation/evaluate.ts';
+import { retrievalRanks } from '../../runner/evaluation/suites/retrieval.ts';
 import { drawChainTasks, taskRng } from '../../runner/evaluation/tasks.ts';
 import {
   evalConfig,
@@ -91,5 +92,24 @@ describe('every method in one experiment sees the same evaluation tasks', () => 
     expect(Math.abs(observed - expected)).toBeLessThan(
       4 * Math.sqrt((expected * (1 - expected)) / count),
     );
+  });
+});
+
+describe('retrievalRanks', () => {
+  it('ranks the own truth by distance among the batch, ties counting against it', () => {
+    // Hand-worked: predictions at 0, 10, 20 on a line; truths at 1, 10, 14.
+    // Query 0: own |0-1| = 1, others 10, 14 → rank 1. Query 1: own 0 → rank 1.
+    // Query 2: own |20-14| = 6, |20-10| = 10, |20-1| = 19 → rank 1. Then move truth 2 to 30:
+    // query 2: own 10, and |20-10| = 10 ties → rank 2.
+    expect(
+      Array.from(
+        retrievalRanks(Float64Array.from([0, 10, 20]), Float64Array.from([1, 10, 14]), 3, 1),
+      ),
+    ).toEqual([1, 1, 1]);
+    expect(
+      Array.from(
+        retrievalRanks(Float64Array.from([0, 10, 20]), Float64Array.from([1, 10, 30]), 3, 1),
+      ),
+    ).toEqual([1, 1, 2]);
   });
 });

@@ -1,6 +1,6 @@
 /**
  * Native engine vs the TF.js reference engine (runner/training/tfjs-engine.ts), every
- * critic × loss direction × regulariser combination on the MLP encoder: from the same
+ * critic × loss direction × regulariser combination on a tanh MLP encoder: from the same
  * initial parameters and the same 300 batches, the loss curves agree within curveTolerance
  * (its justification is in agreement-setup.ts). The reference is an independent
  * implementation: TF.js ops and TF.js automatic differentiation.
@@ -34,7 +34,7 @@ describe.skipIf(nativeAddonForTests() === undefined)('native vs TF.js: objective
   });
 
   it.each(combos)('$critic / $loss / $regulariser: 300-step loss curves agree', async (train) => {
-    const options = agreementOptions({ kind: 'mlp', activation: 'relu' }, train);
+    const options = agreementOptions({ kind: 'mlp', activation: 'tanh' }, train);
     const params = initialParams(options, 5);
     const reference = await createTfjsEngine(options);
     const native = await createNativeEngine(options);
@@ -48,8 +48,8 @@ describe.skipIf(nativeAddonForTests() === undefined)('native vs TF.js: objective
   });
 
   it('has the power to see a 5 % learning-rate error', async () => {
-    const options = agreementOptions({ kind: 'mlp' }, {});
-    const wrong = agreementOptions({ kind: 'mlp' }, { lr: options.train.lr * 1.05 });
+    const options = agreementOptions({ kind: 'mlp', activation: 'tanh' }, {});
+    const wrong = agreementOptions({ kind: 'mlp', activation: 'tanh' }, { lr: options.train.lr * 1.05 });
     const params = initialParams(options, 5);
     const reference = await createTfjsEngine(options);
     const native = await createNativeEngine(wrong);

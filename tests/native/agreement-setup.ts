@@ -104,11 +104,21 @@ export function curveGap(a: number[], b: number[]): { gap: number; step: number 
 }
 
 /**
- * Tolerance of the agreement tests, relative to 1 + |loss|. Both engines compute in float32
- * (unit roundoff 6e-8) but sum in different orders (blocked sgemm vs wasm kernels, fused vs
- * separate reductions), so single-step losses differ by about √(terms) · 6e-8 ≈ 1e-6 and
- * Adam carries the difference forward. Over 300 steps the observed gap was below 1.5e-5 for
- * every combination (docs/native.md); 2e-4 leaves a 10× margin, while a 5 % learning-rate
- * error (checked by the power test) moves the curve by more than this.
+ * Tolerance of the agreement tests, relative to 1 + |loss|, for smooth activations (tanh,
+ * gelu, elu: continuous first derivative). Both engines compute in float32 (unit roundoff
+ * 6e-8) but sum in different orders (blocked sgemm vs the wasm kernels, fused vs separate
+ * reductions), so single-step losses differ by about 1e-7..1e-6 and Adam carries the
+ * difference forward. Measured over 300 steps: at most 3e-5 over all 27 critic × loss ×
+ * regulariser combinations (docs/native.md); 2e-4 leaves a ≈7× margin, while a 5 %
+ * learning-rate error (the power test) moves the curve by more than this.
  */
 export const curveTolerance = 2e-4;
+
+/**
+ * Tolerance for relu. Its derivative jumps at 0, so when float32 noise puts one
+ * pre-activation on the other side of 0 in one engine, that sample's gradient through the
+ * unit differs by O(1) and the curves part at the 1e-3 level (measured: up to 5e-3 over
+ * 300 steps; with tanh in the same runs, 3e-5). The smooth-activation tests carry the precise
+ * check; this one bounds relu curves at 2e-2.
+ */
+export const kinkedCurveTolerance = 2e-2;

@@ -17,7 +17,7 @@ afterEach(() => setFastMatMul(true));
  * Central differences (f(θ+h) − f(θ−h)) / 2h, error O(h²) (common practice), against the
  * gradient TF.js computes through our custom products, log-determinant and critics.
  */
-async function checkGradients(train: TrainConfig, activation: 'tanh' | 'gelu' | 'elu', layerNorm: boolean): Promise<number> {
+async function checkGradients(train: TrainConfig, activation: 'relu' | 'tanh' | 'gelu' | 'elu', layerNorm: boolean): Promise<number> {
   const rng = createRng(11);
   const obsDim = 5;
   const dim = 3;
@@ -63,6 +63,10 @@ describe('gradients of the full loss', () => {
 
   it('match central differences: A = I, no regulariser, backward, elu', async () => {
     expect(await checkGradients(trainConfig({ critic: 'distance-identity', regulariser: 'none', loss: 'backward' }), 'elu', false)).toBeLessThan(0.03);
+  });
+
+  it('match central differences: fused ReLU layers (the fast path), penalty, symmetric', async () => {
+    expect(await checkGradients(trainConfig({ critic: 'distance', regulariser: 'penalty', loss: 'symmetric' }), 'relu', false)).toBeLessThan(0.03);
   });
 
   it('match central differences with TF.js default gradients too', async () => {

@@ -1,6 +1,9 @@
 import type { CliCommand } from '../command.ts';
 import { checkCommand } from './check.ts';
+import { compareCommand } from './compare.ts';
 import { expandCommand } from './expand.ts';
+import { inspectCommand } from './inspect.ts';
+import { reportCommand } from './report.ts';
 import { runCommand } from './run.ts';
 import { statusCommand } from './status.ts';
 import { tableCommand } from './table.ts';
@@ -11,8 +14,11 @@ import { tableCommand } from './table.ts';
  */
 export const commands: CliCommand[] = [
   checkCommand,
+  inspectCommand,
   expandCommand,
   runCommand,
   statusCommand,
+  reportCommand,
   tableCommand,
+  compareCommand,
 ];

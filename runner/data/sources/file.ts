@@ -56,7 +56,7 @@ function produce(config: DataConfig, _rng: unknown, io: DataIo): SourceData {
   }
   const out: SourceData = {
     name: 'file',
-    description: `${cfg.path} (${format}): ${read.obsDim} features${read.stateDim > 0 ? `, ${read.stateDim} state columns` : ''}`,
+    description: `${cfg.path} (${format}): ${read.obsDim} features${read.stateDim > 0 ? `, ${read.stateDim} state column${read.stateDim === 1 ? '' : 's'}` : ''}`,
     obsDim: read.obsDim,
     stateDim: read.stateDim,
     episodes: read.episodes,

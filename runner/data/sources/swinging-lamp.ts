@@ -1,7 +1,7 @@
 /**
- * Swinging lamp seen by a ceiling camera: a damped, driven pendulum (physics/pendulum.ts)
+ * Swinging lamp filmed from the side by a wall camera: a damped, driven pendulum (physics/pendulum.ts)
  * integrated with RK4 and rendered as image×image grayscale frames — a bright bulb on a
- * thin cord hanging from the frame centre. True state: angle θ ∈ (−π, π] and θ' (rad/s).
+ * thin cord hanging from a hook at the frame centre. True state: angle θ ∈ (−π, π] and θ' (rad/s).
  */
 import type { DataConfig } from '../../config/types.ts';
 import type { Rng } from '../../numeric/random.ts';

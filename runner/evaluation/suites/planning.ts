@@ -109,10 +109,16 @@ function planningArms(context: EvalContext, maze: MazeEnvironment, cells: CellCo
     const r = cells.row.get(cell)!;
     return cells.codes.subarray(r * dim, (r + 1) * dim);
   };
+  // Concatenates target rows (each part [rows, dim]) and the goal's encoding last.
   const withGoal = (parts: ArrayLike<number>[], goal: number): Float64Array => {
-    const out = new Float64Array((parts.length + 1) * dim);
-    parts.forEach((p, i) => out.set(p, i * dim));
-    out.set(codeOf(goal), parts.length * dim);
+    const length = parts.reduce((s, p) => s + p.length, 0);
+    const out = new Float64Array(length + dim);
+    let offset = 0;
+    for (const p of parts) {
+      out.set(p, offset);
+      offset += p.length;
+    }
+    out.set(codeOf(goal), offset);
     return out;
   };
   const arms: Arm[] = [

@@ -8,6 +8,7 @@ export {
   solveLowerTransposeColsInPlace,
   solveLowerRowsInPlace,
   solveLowerTransposeRowsInPlace,
+  solveUpperRowsInPlace,
 } from './triangular.ts';
 export {
   addScaled,

@@ -7,20 +7,81 @@
  */
 import type { Mat } from '../matrix.ts';
 
-/** Solves L x = b for every row b of `rows` ([count, n]) in place. */
+/**
+ * Solves L x = b for every row b of `rows` ([count, n]) in place. Two rows at a time, so
+ * each load of L feeds two multiply-adds (forward substitution in dot-product form).
+ */
 export function solveLowerRowsInPlace(
   l: Float64Array,
   n: number,
   rows: Float64Array,
   count: number,
 ): void {
-  for (let q = 0; q < count; q++) {
+  let q = 0;
+  for (; q + 1 < count; q += 2) {
+    const o0 = q * n;
+    const o1 = o0 + n;
+    for (let i = 0; i < n; i++) {
+      const ri = i * n;
+      let s0 = rows[o0 + i]!;
+      let s1 = rows[o1 + i]!;
+      for (let j = 0; j < i; j++) {
+        const lij = l[ri + j]!;
+        s0 -= lij * rows[o0 + j]!;
+        s1 -= lij * rows[o1 + j]!;
+      }
+      const lii = l[ri + i]!;
+      rows[o0 + i] = s0 / lii;
+      rows[o1 + i] = s1 / lii;
+    }
+  }
+  if (q < count) {
     const o = q * n;
     for (let i = 0; i < n; i++) {
       const ri = i * n;
       let s = rows[o + i]!;
       for (let j = 0; j < i; j++) s -= l[ri + j]! * rows[o + j]!;
       rows[o + i] = s / l[ri + i]!;
+    }
+  }
+}
+
+/**
+ * Solves U x = b for an upper triangular U ([n, n] row-major, e.g. Lᵀ stored explicitly)
+ * and every row b of `rows` ([count, n]) in place: back substitution in dot-product form,
+ * two rows at a time.
+ */
+export function solveUpperRowsInPlace(
+  u: Float64Array,
+  n: number,
+  rows: Float64Array,
+  count: number,
+): void {
+  let q = 0;
+  for (; q + 1 < count; q += 2) {
+    const o0 = q * n;
+    const o1 = o0 + n;
+    for (let i = n - 1; i >= 0; i--) {
+      const ri = i * n;
+      let s0 = rows[o0 + i]!;
+      let s1 = rows[o1 + i]!;
+      for (let j = i + 1; j < n; j++) {
+        const uij = u[ri + j]!;
+        s0 -= uij * rows[o0 + j]!;
+        s1 -= uij * rows[o1 + j]!;
+      }
+      const uii = u[ri + i]!;
+      rows[o0 + i] = s0 / uii;
+      rows[o1 + i] = s1 / uii;
+    }
+  }
+  if (q < count) {
+    const o = q * n;
+    for (let i = n - 1; i >= 0; i--) {
+      const ri = i * n;
+      let s = rows[o + i]!;
+      for (let j = i + 1; j < n; j++) s -= u[ri + j]! * rows[o + j]!;
+      rows[o + i] = s / u[ri + i]!;
     }
   }
 }

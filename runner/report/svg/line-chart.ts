@@ -7,7 +7,7 @@
 import { escapeHtml } from '../html/escape.ts';
 import { seriesColour, seriesDash } from './palette.ts';
 import { linearScale, log2Scale, pointScale, type Scale } from './scale.ts';
-import { px, svgText, textWidth, tickLabel } from './svg-format.ts';
+import { px, svgText, textWidth, tickLabels } from './svg-format.ts';
 
 export interface ChartPoint {
   x: number;
@@ -65,18 +65,20 @@ function axes(spec: LineChartSpec, x: Scale, y: Scale): string[] {
   const parts = [
     `<path class="axis" d="M${px(MARGIN.left)} ${px(MARGIN.top)}V${px(bottom)}H${px(WIDTH - MARGIN.right)}" fill="none" stroke="#333" stroke-width="0.8"/>`,
   ];
-  for (const t of y.ticks) {
+  const yLabels = tickLabels(y.ticks);
+  y.ticks.forEach((t, i) => {
     const yy = y.map(t);
     parts.push(
       `<path d="M${px(MARGIN.left)} ${px(yy)}H${px(WIDTH - MARGIN.right)}" stroke="#e3e0d8" stroke-width="0.6"/>`,
     );
-    parts.push(svgText(MARGIN.left - 5, yy + 3.5, tickLabel(t), { 'text-anchor': 'end' }));
-  }
-  for (const t of x.ticks) {
+    parts.push(svgText(MARGIN.left - 5, yy + 3.5, yLabels[i] ?? '', { 'text-anchor': 'end' }));
+  });
+  const xLabels = tickLabels(x.ticks);
+  x.ticks.forEach((t, i) => {
     const xx = x.map(t);
     parts.push(`<path d="M${px(xx)} ${px(bottom)}v4" stroke="#333" stroke-width="0.8"/>`);
-    parts.push(svgText(xx, bottom + 15, tickLabel(t), { 'text-anchor': 'middle' }));
-  }
+    parts.push(svgText(xx, bottom + 15, xLabels[i] ?? '', { 'text-anchor': 'middle' }));
+  });
   parts.push(
     svgText((MARGIN.left + WIDTH - MARGIN.right) / 2, bottom + 30, spec.xLabel, {
       'text-anchor': 'middle',

@@ -1,5 +1,4 @@
 /** Small helpers shared by the SVG charts: fixed-precision coordinates and tick labels. */
-import { formatValue } from '../format-number.ts';
 import { escapeHtml } from '../html/escape.ts';
 
 /** A pixel coordinate with one decimal: stable text, byte for byte, on every machine. */
@@ -8,9 +7,23 @@ export function px(value: number): string {
   return text === '-0.0' ? '0.0' : text;
 }
 
-/** A tick label: integers plainly, others with three significant digits. */
-export function tickLabel(value: number): string {
-  return Number.isInteger(value) && Math.abs(value) < 1e6 ? String(value) : formatValue(value);
+/**
+ * Tick labels of one axis, all with the decimals their spacing needs (0.2, 0.4 … rather
+ * than 0.200, 0.400), so labels line up and never show noise digits.
+ */
+export function tickLabels(ticks: readonly number[]): string[] {
+  let step = Infinity;
+  for (let i = 1; i < ticks.length; i++)
+    step = Math.min(step, Math.abs((ticks[i] ?? 0) - (ticks[i - 1] ?? 0)));
+  const integers = ticks.every((t) => Number.isInteger(t));
+  const decimals =
+    integers || !Number.isFinite(step) || step === 0
+      ? 0
+      : Math.max(0, Math.ceil(-Math.log10(step) - 1e-9));
+  return ticks.map((t) => {
+    const text = t.toFixed(Math.min(decimals, 8));
+    return /^-0(\.0+)?$/.test(text) ? text.slice(1) : text;
+  });
 }
 
 /** An SVG <text> element with escaped content. */

@@ -82,7 +82,7 @@ export const fitAutoencoder: MethodFit = async (context) => {
   const rng = createRng(spec.seed);
   const encoder = await buildEncoder({ config: spec.encoder, obsDim: dataset.obsDim, dim: spec.dim, seed: spec.seed, baseDir: spec.baseDir, ...(dataset.imageShape === undefined ? {} : { imageShape: dataset.imageShape }) }, rng.fork('init'));
   const decoderConfig: EncoderConfig = { ...spec.encoder, kind: 'mlp', layerNorm: false, widths: spec.encoder.kind === 'mlp' ? [...spec.encoder.widths].reverse() : [] };
-  const decoder = buildDenseEncoder({ config: decoderConfig, obsDim: spec.dim, dim: dataset.obsDim, seed: spec.seed }, rng.fork('decoder'));
+  const decoder = buildDenseEncoder({ config: decoderConfig, obsDim: spec.dim, dim: dataset.obsDim, seed: spec.seed }, rng.fork('decoder'), false);
   const optimizer = tf.train.adam(spec.train.lr, 0.9, 0.999, 1e-7);
   const all = stack(dataset.train);
   const batchRng = rng.fork('batches');

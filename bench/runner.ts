@@ -1,0 +1,157 @@
+/**
+ * Runner benchmark, printed as a table with each figure beside its reference:
+ *  1. parallel efficiency — throughput of 2 workers over 1 on a sweep of equal CPU-bound
+ *     jobs (fake handlers spinning for a fixed time; target ≥ 1.8×, ideal 2×);
+ *  2. runner overhead on a 10,000-job plan, jobs themselves excluded: expanding the plan,
+ *     the resume scan of a finished run (runSweep with every result kept), reading the run,
+ *     writing results (atomic, fsync) with their index rows, and rebuilding the index
+ *     (target well under 1 s for expand, resume scan and index rebuild).
+ * Needs at least 2 idle cores for part 1 to mean anything; the table prints the load.
+ *
+ *   npx tsx bench/runner.ts           full run (about a minute on an idle machine)
+ *   npx tsx bench/runner.ts --quick   1,000 jobs and shorter spins
+ */
+import { mkdtempSync, rmSync, writeFileSync } from 'node:fs';
+import { availableParallelism, loadavg, tmpdir } from 'node:os';
+import { join } from 'node:path';
+import { fileURLToPath } from 'node:url';
+import { loadExperiment } from '../runner/config/load-experiment.ts';
+import { runSweep } from '../runner/execute/run-sweep.ts';
+import { expandPlan } from '../runner/plan/expand-plan.ts';
+import type { JobSpec } from '../runner/plan/job-spec.ts';
+import { readRun } from '../runner/store/read-run.ts';
+import { rebuildIndex } from '../runner/store/run-index.ts';
+import { RunLedger } from '../runner/store/run-ledger.ts';
+import { fakeTrainSpec } from '../tests/fixtures/execute/fake-plan.ts';
+
+const quick = process.argv.includes('--quick');
+const JOBS = quick ? 1000 : 10_000;
+const SPIN_MS = quick ? 1500 : 4000;
+const SPIN_JOBS = quick ? 4 : 8;
+const handlers = fileURLToPath(
+  new URL('../tests/fixtures/execute/fake-handlers.ts', import.meta.url),
+);
+const rows: string[][] = [];
+const root = mkdtempSync(join(tmpdir(), 'midpath-bench-'));
+
+function seconds(start: number): number {
+  return (performance.now() - start) / 1000;
+}
+
+async function timeSweep(jobs: JobSpec[], workers: number, dir: string): Promise<number> {
+  const ledger = new RunLedger(dir, { runId: `bench-${workers}` });
+  const start = performance.now();
+  await runSweep(jobs, {
+    ledger,
+    workers,
+    cores: workers,
+    fresh: true,
+    retries: 0,
+    timeLimitMs: () => 600_000,
+    env: { MIDPATH_HANDLERS_MODULE: handlers },
+  });
+  ledger.close();
+  return seconds(start);
+}
+
+async function benchParallel(): Promise<void> {
+  const jobs = Array.from({ length: SPIN_JOBS }, (_, i) => fakeTrainSpec(i, 'spin', SPIN_MS));
+  const one = await timeSweep(jobs, 1, join(root, 'w1'));
+  const two = await timeSweep(jobs, 2, join(root, 'w2'));
+  const speedup = one / two;
+  rows.push([
+    `${SPIN_JOBS} jobs × ${SPIN_MS / 1000} s CPU, 1 worker`,
+    `${one.toFixed(2)} s`,
+    `${(SPIN_JOBS / one).toFixed(3)} jobs/s`,
+    'reference',
+  ]);
+  rows.push([
+    `same, 2 workers`,
+    `${two.toFixed(2)} s`,
+    `${(SPIN_JOBS / two).toFixed(3)} jobs/s`,
+    `${speedup.toFixed(2)}× (target ≥ 1.80×, ideal 2.00×)`,
+  ]);
+}
+
+async function planOf(count: number): Promise<{ jobs: JobSpec[]; expandSeconds: number }> {
+  const file = join(root, 'overhead.yaml');
+  writeFileSync(file, `name: overhead\nmethods: [contrastive]\nsweep:\n  seeds: ${count / 2}\n`);
+  const loaded = await loadExperiment(file);
+  if (!loaded.ok) throw new Error(JSON.stringify(loaded.errors));
+  const start = performance.now();
+  const jobs = expandPlan(loaded.config, loaded.baseDir);
+  return { jobs, expandSeconds: seconds(start) };
+}
+
+function overheadRow(step: string, secs: number, count: number, target?: number): void {
+  const verdict =
+    target === undefined ? '' : `${(secs / target).toFixed(2)} of the ${target} s target`;
+  rows.push([step, `${secs.toFixed(3)} s`, `${((secs / count) * 1e6).toFixed(1)} µs/job`, verdict]);
+}
+
+async function benchOverhead(): Promise<void> {
+  const { jobs, expandSeconds } = await planOf(JOBS);
+  overheadRow(`expand ${jobs.length} jobs`, expandSeconds, jobs.length, 1);
+  const dir = join(root, 'overhead');
+  const ledger = new RunLedger(dir, { runId: 'bench-overhead' });
+  const provenance = {
+    midpathVersion: '0',
+    gitCommit: null,
+    nodeVersion: process.version,
+    backend: 'bench',
+    seed: 0,
+    startedAt: new Date().toISOString(),
+    wallSeconds: 1,
+    peakRssBytes: 0,
+    hostname: 'bench',
+  };
+  let start = performance.now();
+  for (const spec of jobs) {
+    const metrics = [
+      { suite: 'forecast', metric: 'forecast_nmse', level: 1, source: 'fitted', value: spec.seed },
+    ];
+    await ledger.record({ spec, status: 'done', metrics, info: {}, provenance });
+  }
+  overheadRow('write result.json (fsync) + index row, per job', seconds(start), jobs.length);
+  start = performance.now();
+  const summary = await runSweep(jobs, { ledger, fresh: false, retries: 0, timeLimitMs: () => 1 });
+  overheadRow(
+    `resume scan (all ${summary.stored} kept, nothing to run)`,
+    seconds(start),
+    jobs.length,
+    1,
+  );
+  ledger.close();
+  start = performance.now();
+  await readRun(dir);
+  overheadRow('readRun (plan + every result.json)', seconds(start), jobs.length);
+  start = performance.now();
+  await rebuildIndex(dir);
+  overheadRow('rebuild index.sqlite from result files', seconds(start), jobs.length, 1);
+}
+
+function printTable(): void {
+  const header = ['step', 'time', 'rate', 'against reference'];
+  const all = [header, ...rows];
+  const widths = header.map((_, c) => Math.max(...all.map((r) => (r[c] ?? '').length)));
+  for (const row of all)
+    console.log(
+      row
+        .map((cell, c) => cell.padEnd(widths[c] ?? 0))
+        .join('  ')
+        .trimEnd(),
+    );
+}
+
+console.log(
+  `runner benchmark: ${availableParallelism()} cores, load average ${loadavg()
+    .map((l) => l.toFixed(2))
+    .join(' ')}${quick ? ' (quick)' : ''}`,
+);
+try {
+  await benchParallel();
+  await benchOverhead();
+  printTable();
+} finally {
+  rmSync(root, { recursive: true, force: true });
+}
