@@ -64,6 +64,15 @@ function randomMatrix(rows_: number, cols: number, seed: number, scale: number):
   };
 }
 
+interface BridgeCase {
+  model: TransitionModel;
+  T: number;
+  starts: Float64Array; // [queries, d]
+  goals: Float64Array; // [queries, d]
+  queries: number;
+  label: string;
+}
+
 function benchBridge(): void {
   const d = 32;
   const T = 16;
@@ -73,61 +82,65 @@ function benchBridge(): void {
   const model = criticTransition(randomMatrix(d, d, 1, Math.sqrt((1 + 1 / c) / d)), c);
   const starts = randomMatrix(queries, d, 2, 1).data;
   const goals = randomMatrix(queries, d, 3, 1).data;
-  const label = `bridge d=${d} T=${T}`;
+  const bc: BridgeCase = { model, T, starts, goals, queries, label: `bridge d=${d} T=${T}` };
 
-  const batched = timePerCall(() => prepareBridge(model, T).solve(starts, goals, queries));
-  const batchedRate = queries / batched;
+  const batched =
+    queries / timePerCall(() => prepareBridge(model, T).solve(starts, goals, queries));
   row(
-    `${label}: batched, factor once + ${queries} queries`,
-    batchedRate,
+    `${bc.label}: batched, factor once + ${queries} queries`,
+    batched,
     'queries/s',
     '1 (reference)',
   );
   const solver = prepareBridge(model, T);
-  const solveOnly = timePerCall(() => solver.solve(starts, goals, queries));
+  const solveOnly = queries / timePerCall(() => solver.solve(starts, goals, queries));
   row(
-    `${label}: batched, solve only (factor reused)`,
-    queries / solveOnly,
+    `${bc.label}: batched, solve only (factor reused)`,
+    solveOnly,
     'queries/s',
-    ratio(queries / solveOnly, batchedRate),
+    ratio(solveOnly, batched),
   );
+  benchOneByOne(bc, batched);
+  const dense = queries / timePerCall(() => solveBridgeDense(model, starts, goals, queries, T));
+  row(
+    `${bc.label}: dense (Td)×(Td) Cholesky, stacked RHS`,
+    dense,
+    'queries/s',
+    ratio(dense, batched),
+  );
+  benchNumpy(bc, batched);
+}
 
-  const few = Math.min(queries, quick ? 8 : 40);
-  const oneByOne = timePerCall(() => {
-    for (let q = 0; q < few; q++)
-      solveBridge(
-        model,
-        starts.subarray(q * d, (q + 1) * d),
-        goals.subarray(q * d, (q + 1) * d),
-        1,
-        T,
-      );
-  });
+/** Queries answered one call each: with a fresh factorisation, and on a prepared solver. */
+function benchOneByOne(bc: BridgeCase, batched: number): void {
+  const { model, T, starts, goals, label } = bc;
+  const d = model.dim;
+  const few = Math.min(bc.queries, quick ? 8 : 40);
+  const start = (q: number): Float64Array => starts.subarray(q * d, (q + 1) * d);
+  const goal = (q: number): Float64Array => goals.subarray(q * d, (q + 1) * d);
+  const fresh =
+    few /
+    timePerCall(() => {
+      for (let q = 0; q < few; q++) solveBridge(model, start(q), goal(q), 1, T);
+    });
   row(
     `${label}: one-by-one solveBridge (factor per query)`,
-    few / oneByOne,
+    fresh,
     'queries/s',
-    ratio(few / oneByOne, batchedRate),
+    ratio(fresh, batched),
   );
-  const prepared = timePerCall(() => {
-    for (let q = 0; q < few; q++)
-      solver.solve(starts.subarray(q * d, (q + 1) * d), goals.subarray(q * d, (q + 1) * d), 1);
-  });
+  const solver = prepareBridge(model, T);
+  const prepared =
+    few /
+    timePerCall(() => {
+      for (let q = 0; q < few; q++) solver.solve(start(q), goal(q), 1);
+    });
   row(
     `${label}: one-by-one solve on a prepared solver`,
-    few / prepared,
+    prepared,
     'queries/s',
-    ratio(few / prepared, batchedRate),
+    ratio(prepared, batched),
   );
-
-  const dense = timePerCall(() => solveBridgeDense(model, starts, goals, queries, T));
-  row(
-    `${label}: dense (Td)×(Td) Cholesky, stacked RHS`,
-    queries / dense,
-    'queries/s',
-    ratio(queries / dense, batchedRate),
-  );
-  benchNumpy(model, T, starts, goals, queries, batchedRate, label);
 }
 
 function ratio(rate: number, reference: number): string {
@@ -135,15 +148,8 @@ function ratio(rate: number, reference: number): string {
 }
 
 /** The same batch through bench/peers/bridge_numpy.py, when python3 has numpy. */
-function benchNumpy(
-  model: TransitionModel,
-  T: number,
-  starts: Float64Array,
-  goals: Float64Array,
-  queries: number,
-  ours: number,
-  label: string,
-): void {
+function benchNumpy(bc: BridgeCase, ours: number): void {
+  const { model, T, starts, goals, queries, label } = bc;
   const probe = spawnSync('python3', ['-c', 'import numpy'], { encoding: 'utf8' });
   if (probe.status !== 0) {
     rows.push([
@@ -168,10 +174,13 @@ function benchNumpy(
     repeats: quick ? 2 : 5,
   };
   const script = fileURLToPath(new URL('./peers/bridge_numpy.py', import.meta.url));
+  // One BLAS thread, like ours; the script reports its own CPU time (time.process_time).
+  const oneThread = { OPENBLAS_NUM_THREADS: '1', OMP_NUM_THREADS: '1', MKL_NUM_THREADS: '1' };
   const run = spawnSync('python3', [script], {
     input: JSON.stringify(job),
     encoding: 'utf8',
     maxBuffer: 1 << 26,
+    env: { ...process.env, ...oneThread },
   });
   if (run.status !== 0) {
     rows.push([`${label}: numpy`, '—', 'failed', run.stderr.trim().split('\n').pop() ?? '']);
@@ -184,18 +193,10 @@ function benchNumpy(
     numpy: string;
   };
   const rate = queries / out.seconds;
-  row(
-    `${label}: numpy ${out.numpy} dense solve, stacked RHS, 1 thread`,
-    rate,
-    'queries/s',
-    `${ratio(rate, ours)} (ours ${ratio(ours, rate)} numpy)`,
-  );
-  rows.push([
-    `  agreement with numpy`,
-    '',
-    '',
-    `max |Δmean| ${out.maxMeanDiff.toExponential(1)}, max |Δcov| ${out.maxCovDiff.toExponential(1)}`,
-  ]);
+  const note = `${ratio(rate, ours)} (ours ${ratio(ours, rate)} numpy)`;
+  row(`${label}: numpy ${out.numpy} dense solve, stacked RHS, 1 thread`, rate, 'queries/s', note);
+  const agreement = `max |Δmean| ${out.maxMeanDiff.toExponential(1)}, max |Δcov| ${out.maxCovDiff.toExponential(1)}`;
+  rows.push(['  agreement with numpy', '', '', agreement]);
 }
 
 function benchForecast(): void {

@@ -19,7 +19,12 @@ import { listBackends, selectBackend, type BackendName } from '../runner/encoder
 import { initDenseParams } from '../runner/encoders/dense-layout.ts';
 import { setFastMatMul } from '../runner/encoders/fast-matmul.ts';
 import { createRng } from '../runner/numeric/random.ts';
-import { createEngine, getEngineFactory, type EngineName, type EngineOptions } from '../runner/training/engine.ts';
+import {
+  createEngine,
+  getEngineFactory,
+  type EngineName,
+  type EngineOptions,
+} from '../runner/training/engine.ts';
 import { loadEngines } from '../runner/training/engines.ts';
 import { PairSampler } from '../runner/training/pair-sampler.ts';
 import { runTrainingLoop } from '../runner/training/train-loop.ts';
@@ -41,14 +46,39 @@ function stepFlops(): number {
 }
 
 const train: TrainConfig = {
-  steps: 0, batch: BATCH, lr: 1e-3, discount: 0.9, critic: 'distance', loss: 'symmetric',
-  regulariser: 'penalty', weight: 1, scale: 1, clip: 1, logEvery: 1_000_000, engine: 'tfjs',
+  steps: 0,
+  batch: BATCH,
+  lr: 1e-3,
+  discount: 0.9,
+  critic: 'distance',
+  loss: 'symmetric',
+  regulariser: 'penalty',
+  weight: 1,
+  scale: 1,
+  clip: 1,
+  logEvery: 1_000_000,
+  engine: 'tfjs',
 };
 
-async function measureLoop(engineName: EngineName, samplers: { train: PairSampler; val: PairSampler }, steps: number): Promise<number> {
+async function measureLoop(
+  engineName: EngineName,
+  samplers: { train: PairSampler; val: PairSampler },
+  steps: number,
+): Promise<number> {
   const options: EngineOptions = {
-    encoder: { kind: 'mlp', widths: WIDTHS, activation: 'relu', layerNorm: false, channels: [], options: {} },
-    obsDim: OBS, dim: DIM, train, threads: 1, seed: 0,
+    encoder: {
+      kind: 'mlp',
+      widths: WIDTHS,
+      activation: 'relu',
+      layerNorm: false,
+      channels: [],
+      options: {},
+    },
+    obsDim: OBS,
+    dim: DIM,
+    train,
+    threads: 1,
+    seed: 0,
   };
   const engine = await createEngine(engineName, options);
   engine.init(initDenseParams(options.encoder, OBS, DIM, 'distance', createRng(0).fork('init')));
@@ -56,7 +86,13 @@ async function measureLoop(engineName: EngineName, samplers: { train: PairSample
   await runTrainingLoop(engine, { ...train, steps: 3 }, samplers, createRng(1), hooks); // warm-up
   let best = 0;
   for (let r = 0; r < ROUNDS; r++) {
-    const result = await runTrainingLoop(engine, { ...train, steps, logEvery: steps }, samplers, createRng(2 + r), hooks);
+    const result = await runTrainingLoop(
+      engine,
+      { ...train, steps, logEvery: steps },
+      samplers,
+      createRng(2 + r),
+      hooks,
+    );
     best = Math.max(best, result.stepsPerSecond);
   }
   engine.dispose();
@@ -65,7 +101,7 @@ async function measureLoop(engineName: EngineName, samplers: { train: PairSample
 
 /** GFLOP/s of a 256³ product on the current backend, untransposed and with transposeA. */
 function matmulPeak(): { plain: number; transposed: number } {
-  const a = tf.randomNormal([256, 256]) as tf.Tensor2D;
+  const a = tf.randomNormal<tf.Rank.R2>([256, 256]);
   const time = (ta: boolean, reps: number): number => {
     tf.matMul(a, a, ta, false).dispose();
     let best = Infinity;
@@ -87,7 +123,13 @@ function matmulPeak(): { plain: number; transposed: number } {
 
 function runTorch(steps: number): Record<string, unknown> | string {
   const script = path.join(import.meta.dirname, 'peers', 'torch_step.py');
-  const env = { ...process.env, OPENBLAS_CORETYPE: 'SkylakeX', OPENBLAS_NUM_THREADS: '1', OMP_NUM_THREADS: '1', MKL_NUM_THREADS: '1' };
+  const env = {
+    ...process.env,
+    OPENBLAS_CORETYPE: 'SkylakeX',
+    OPENBLAS_NUM_THREADS: '1',
+    OMP_NUM_THREADS: '1',
+    MKL_NUM_THREADS: '1',
+  };
   for (const python of ['python3', '/usr/bin/python3']) {
     if (spawnSync(python, ['-c', 'import torch'], { env }).status !== 0) continue;
     let best: Record<string, unknown> | undefined;
@@ -95,54 +137,89 @@ function runTorch(steps: number): Record<string, unknown> | string {
       const run = spawnSync(python, [script, String(steps)], { env, encoding: 'utf8' });
       if (run.status !== 0) return `torch peer failed: ${run.stderr.slice(-300)}`;
       const parsed = JSON.parse(run.stdout.trim().split('\n').pop()!) as Record<string, unknown>;
-      if (best === undefined || Number(parsed.stepsPerSecond) > Number(best.stepsPerSecond)) best = parsed;
+      if (best === undefined || Number(parsed.stepsPerSecond) > Number(best.stepsPerSecond))
+        best = parsed;
     }
     return { ...best!, python };
   }
-  return "no python3 with torch (apt-get install python3-torch libopenblas0-pthread)";
+  return 'no python3 with torch (apt-get install python3-torch libopenblas0-pthread)';
 }
 
 async function main(): Promise<void> {
   const data: DataConfig = {
-    source: 'linear-gaussian', seed: 0, episodes: 40, steps: 64, obsDim: OBS, noise: 0.05, stateDim: 8,
-    map: 'smooth', layout: 'open-hall', image: 16, dt: 0, split: { train: 0.8, val: 0.1, test: 0.1 }, standardise: true,
+    source: 'linear-gaussian',
+    seed: 0,
+    episodes: 40,
+    steps: 64,
+    obsDim: OBS,
+    noise: 0.05,
+    stateDim: 8,
+    map: 'smooth',
+    layout: 'open-hall',
+    image: 16,
+    dt: 0,
+    split: { train: 0.8, val: 0.1, test: 0.1 },
+    standardise: true,
   };
   const dataset = await loadDataset(data, '.');
-  const samplers = { train: new PairSampler(dataset.train, 0.9), val: new PairSampler(dataset.val, 0.9) };
+  const samplers = {
+    train: new PairSampler(dataset.train, 0.9),
+    val: new PairSampler(dataset.val, 0.9),
+  };
   await loadEngines();
   const flops = stepFlops();
   const rows: { engine: string; grads: string; sps: number }[] = [];
   let peak = { plain: 0, transposed: 0 };
   for (const backend of await listBackends()) {
-    await selectBackend(backend as BackendName);
+    await selectBackend(backend);
     if (backend === 'wasm') peak = matmulPeak();
     for (const custom of [false, true]) {
       setFastMatMul(custom);
       const steps = backend === 'cpu' ? 4 : custom ? 40 : 12;
-      rows.push({ engine: `tfjs ${backend}`, grads: custom ? 'custom (explicit transpose)' : 'TF.js default', sps: await measureLoop('tfjs', samplers, steps) });
+      rows.push({
+        engine: `tfjs ${backend}`,
+        grads: custom ? 'custom (explicit transpose)' : 'TF.js default',
+        sps: await measureLoop('tfjs', samplers, steps),
+      });
     }
   }
   setFastMatMul(true);
   if (getEngineFactory('native') !== undefined) {
-    rows.push({ engine: 'native', grads: 'hand-written', sps: await measureLoop('native', samplers, 200) });
+    rows.push({
+      engine: 'native',
+      grads: 'hand-written',
+      sps: await measureLoop('native', samplers, 200),
+    });
   }
   const torch = runTorch(200);
   const torchSps = typeof torch === 'string' ? undefined : Number(torch.stepsPerSecond);
-  console.log(`\nReference step: MLP ${OBS}→${WIDTHS.join('→')}→${DIM}, batch ${BATCH}, learned A, symmetric InfoNCE, Adam; ${(flops / 1e6).toFixed(0)} MFLOP/step; best of ${ROUNDS}`);
-  console.log(`wasm matmul 256³: ${peak.plain.toFixed(1)} GFLOP/s untransposed, ${peak.transposed.toFixed(1)} GFLOP/s with transposeA\n`);
+  console.log(
+    `\nReference step: MLP ${OBS}→${WIDTHS.join('→')}→${DIM}, batch ${BATCH}, learned A, symmetric InfoNCE, Adam; ${(flops / 1e6).toFixed(0)} MFLOP/step; best of ${ROUNDS}`,
+  );
+  console.log(
+    `wasm matmul 256³: ${peak.plain.toFixed(1)} GFLOP/s untransposed, ${peak.transposed.toFixed(1)} GFLOP/s with transposeA\n`,
+  );
   console.log('| engine | gradients | steps/s | GFLOP/s | % wasm peak | × PyTorch |');
   console.log('|---|---|---:|---:|---:|---:|');
   for (const r of rows) {
     const gf = (r.sps * flops) / 1e9;
     const ratio = torchSps === undefined ? 'n/a' : (r.sps / torchSps).toFixed(3);
-    console.log(`| ${r.engine} | ${r.grads} | ${r.sps.toFixed(2)} | ${gf.toFixed(2)} | ${peak.plain > 0 ? ((100 * gf) / peak.plain).toFixed(0) : 'n/a'} | ${ratio} |`);
+    console.log(
+      `| ${r.engine} | ${r.grads} | ${r.sps.toFixed(2)} | ${gf.toFixed(2)} | ${peak.plain > 0 ? ((100 * gf) / peak.plain).toFixed(0) : 'n/a'} | ${ratio} |`,
+    );
   }
   if (typeof torch === 'string') {
     console.log(`\nPyTorch: ${torch}`);
   } else {
-    console.log(`| PyTorch ${String(torch.torch)} CPU | autograd | ${torchSps!.toFixed(2)} | ${((torchSps! * flops) / 1e9).toFixed(2)} | | 1.000 |`);
-    console.log(`\nPyTorch peer: ${String(torch.python)}, ${String(torch.threads)} thread, OPENBLAS_CORETYPE=${String(torch.coretype)}, matmul 512³ ${Number(torch.matmulGflops).toFixed(1)} GFLOP/s`);
-    console.log(`BLAS loaded: ${(torch.blas as string[]).join(', ') || 'none found in /proc/self/maps'}`);
+    console.log(
+      `| PyTorch ${String(torch.torch)} CPU | autograd | ${torchSps!.toFixed(2)} | ${((torchSps! * flops) / 1e9).toFixed(2)} | | 1.000 |`,
+    );
+    console.log(
+      `\nPyTorch peer: ${String(torch.python)}, ${String(torch.threads)} thread, OPENBLAS_CORETYPE=${String(torch.coretype)}, matmul 512³ ${Number(torch.matmulGflops).toFixed(1)} GFLOP/s`,
+    );
+    console.log(
+      `BLAS loaded: ${(torch.blas as string[]).join(', ') || 'none found in /proc/self/maps'}`,
+    );
   }
 }
 

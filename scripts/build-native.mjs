@@ -29,7 +29,17 @@ function unavailable(why) {
 function findNodeGyp() {
   const candidates = [
     process.env.npm_config_node_gyp,
-    join(dirname(process.execPath), '..', 'lib', 'node_modules', 'npm', 'node_modules', 'node-gyp', 'bin', 'node-gyp.js'),
+    join(
+      dirname(process.execPath),
+      '..',
+      'lib',
+      'node_modules',
+      'npm',
+      'node_modules',
+      'node-gyp',
+      'bin',
+      'node-gyp.js',
+    ),
   ];
   try {
     candidates.push(createRequire(join(root, 'package.json')).resolve('node-gyp/bin/node-gyp.js'));

@@ -18,7 +18,7 @@ template <typename T>
 inline T activate(Activation kind, T u) {
   switch (kind) {
     case Activation::Relu:
-      return u > T(0) ? u : T(0);
+      return u < T(0) ? T(0) : u;
     case Activation::Tanh:
       return std::tanh(u);
     case Activation::Elu:  // Clevert et al., 2016, eq. 15, α = 1
@@ -56,7 +56,8 @@ template <typename T>
 void activate_all(Activation kind, const T* u, T* a, std::size_t n) {
   switch (kind) {
     case Activation::Relu:
-      for (std::size_t i = 0; i < n; ++i) a[i] = u[i] > T(0) ? u[i] : T(0);
+      // u < 0 ? 0 : u, not u > 0 ? u : 0: a NaN must pass through and show as divergence.
+      for (std::size_t i = 0; i < n; ++i) a[i] = u[i] < T(0) ? T(0) : u[i];
       return;
     case Activation::Tanh:
       for (std::size_t i = 0; i < n; ++i) a[i] = activate(Activation::Tanh, u[i]);

@@ -107,98 +107,116 @@ function draftListLength(e: ErrorObject, path: ConfigPath): Draft {
   return draft;
 }
 
-/** Turns one ajv error into a draft ConfigError, or undefined for errors folded elsewhere. */
-function draftError(e: ErrorObject, root: SchemaNode): Draft | undefined {
+type Drafter = (e: ErrorObject, path: ConfigPath, root: SchemaNode) => Draft;
+
+function draftMissingKey(e: ErrorObject, path: ConfigPath): Draft {
+  const key = (e.params as { missingProperty: string }).missingProperty;
+  return {
+    code: 'missing-key',
+    path,
+    prefer: 'key',
+    hint: `add \`${key}:\` under ${formatPath(path)}`,
+    message: `expected key \`${key}\` in ${formatPath(path)}, got none`,
+  };
+}
+
+function draftWrongType(e: ErrorObject, path: ConfigPath): Draft {
+  const want = String((e.params as { type: string }).type);
+  const hint =
+    want === 'array'
+      ? 'write a list, e.g. `[a, b]` or one `- item` per line'
+      : want === 'integer' && typeof e.data === 'number'
+        ? 'use a whole number'
+        : (e.parentSchema as SchemaNode).description;
+  const draft: Draft = {
+    code: 'wrong-type',
+    path,
+    prefer: 'value',
+    message: `expected ${describeType(want)}, got ${describeValue(e.data)}`,
+  };
+  if (hint !== undefined) draft.hint = hint;
+  return draft;
+}
+
+function draftUnknownValue(e: ErrorObject, path: ConfigPath): Draft {
+  const allowed = (e.params as { allowedValues: unknown[] }).allowedValues.map(String);
+  const close = typeof e.data === 'string' ? suggestClosest(e.data, allowed) : undefined;
+  return {
+    code: 'unknown-value',
+    path,
+    prefer: 'value',
+    message: `expected one of ${allowed.join(', ')}, got ${describeValue(e.data)}`,
+    hint: close !== undefined ? `did you mean \`${close}\`?` : `pick one of ${allowed.join(', ')}`,
+  };
+}
+
+/** Points at the later of two equal entries: the one to remove. */
+function draftDuplicateValue(e: ErrorObject, path: ConfigPath): Draft {
+  const { i, j } = e.params as { i: number; j: number };
+  const [first, second] = [Math.min(i, j), Math.max(i, j)];
+  const list = e.data as unknown[];
+  return {
+    code: 'duplicate-value',
+    path: [...path, second],
+    prefer: 'value',
+    message: `expected distinct values, got ${JSON.stringify(list[second])} twice (entries ${first + 1} and ${second + 1})`,
+    hint: 'remove the repeated entry',
+  };
+}
+
+function draftBadFormat(e: ErrorObject, path: ConfigPath): Draft {
+  return {
+    code: 'bad-format',
+    path,
+    prefer: 'value',
+    message: `expected text matching ${(e.params as { pattern: string }).pattern}, got ${describeValue(e.data)}`,
+    hint: 'use lower-case letters, digits, `.`, `_` and `-`, starting with a letter or digit',
+  };
+}
+
+/** `propertyNames` guards only the axis maps: a key there must look like a dotted path. */
+function draftBadAxisName(e: ErrorObject, path: ConfigPath): Draft {
+  const name = String((e.params as { propertyName: string }).propertyName);
+  return {
+    code: 'unknown-axis',
+    path: [...path, name],
+    prefer: 'key',
+    message: `expected a dotted config path such as \`train.discount\`, got ${JSON.stringify(name)}`,
+    hint: 'write the path of a key, segments joined by dots',
+  };
+}
+
+/** One drafter per JSON Schema keyword the experiment schema uses. */
+const DRAFTERS: Record<string, Drafter> = {
+  additionalProperties: draftUnknownKey,
+  required: draftMissingKey,
+  type: draftWrongType,
+  minimum: draftRange,
+  maximum: draftRange,
+  exclusiveMinimum: draftRange,
+  exclusiveMaximum: draftRange,
+  minItems: draftListLength,
+  maxItems: draftListLength,
+  minProperties: draftListLength,
+  enum: draftUnknownValue,
+  uniqueItems: draftDuplicateValue,
+  pattern: draftBadFormat,
+  propertyNames: draftBadAxisName,
+};
+
+/** Turns one ajv error into a draft ConfigError. */
+function draftError(e: ErrorObject, root: SchemaNode): Draft {
   const path = parsePointer(e.instancePath, undefined).map((s) =>
     /^\d+$/.test(String(s)) ? Number(s) : s,
   );
-  switch (e.keyword) {
-    case 'additionalProperties':
-      return draftUnknownKey(e, path, root);
-    case 'required': {
-      const key = (e.params as { missingProperty: string }).missingProperty;
-      return {
-        code: 'missing-key',
-        path,
-        prefer: 'key',
-        hint: `add \`${key}:\` under ${formatPath(path)}`,
-        message: `expected key \`${key}\` in ${formatPath(path)}, got none`,
-      };
-    }
-    case 'type': {
-      const want = String((e.params as { type: string }).type);
-      const hint =
-        want === 'array'
-          ? 'write a list, e.g. `[a, b]` or one `- item` per line'
-          : want === 'integer' && typeof e.data === 'number'
-            ? 'use a whole number'
-            : (e.parentSchema as SchemaNode).description;
-      const draft: Draft = {
-        code: 'wrong-type',
-        path,
-        prefer: 'value',
-        message: `expected ${describeType(want)}, got ${describeValue(e.data)}`,
-      };
-      if (hint !== undefined) draft.hint = hint;
-      return draft;
-    }
-    case 'minimum':
-    case 'maximum':
-    case 'exclusiveMinimum':
-    case 'exclusiveMaximum':
-      return draftRange(e, path);
-    case 'minItems':
-    case 'maxItems':
-    case 'minProperties':
-      return draftListLength(e, path);
-    case 'enum': {
-      const allowed = (e.params as { allowedValues: unknown[] }).allowedValues.map(String);
-      const close = typeof e.data === 'string' ? suggestClosest(e.data, allowed) : undefined;
-      return {
-        code: 'unknown-value',
-        path,
-        prefer: 'value',
-        message: `expected one of ${allowed.join(', ')}, got ${describeValue(e.data)}`,
-        hint:
-          close !== undefined ? `did you mean \`${close}\`?` : `pick one of ${allowed.join(', ')}`,
-      };
-    }
-    case 'uniqueItems': {
-      const { i, j } = e.params as { i: number; j: number };
-      const [first, second] = [Math.min(i, j), Math.max(i, j)];
-      const list = e.data as unknown[];
-      return {
-        code: 'duplicate-value',
-        path: [...path, second],
-        prefer: 'value',
-        message: `expected distinct values, got ${JSON.stringify(list[second])} twice (entries ${first + 1} and ${second + 1})`,
-        hint: 'remove the repeated entry',
-      };
-    }
-    case 'pattern':
-      return {
-        code: 'bad-format',
-        path,
-        prefer: 'value',
-        message: `expected text matching ${(e.params as { pattern: string }).pattern}, got ${describeValue(e.data)}`,
-        hint: 'use lower-case letters, digits, `.`, `_` and `-`, starting with a letter or digit',
-      };
-    case 'propertyNames':
-      return {
-        code: 'unknown-axis',
-        path: [...path, String((e.params as { propertyName: string }).propertyName)],
-        prefer: 'key',
-        message: `expected a dotted config path such as \`train.discount\`, got ${JSON.stringify((e.params as { propertyName: string }).propertyName)}`,
-        hint: 'write the path of a key, segments joined by dots',
-      };
-    default:
-      return {
-        code: 'wrong-type',
-        path,
-        prefer: 'value',
-        message: `expected a valid value, got ${describeValue(e.data)} (${e.message ?? e.keyword})`,
-      };
-  }
+  const drafter = DRAFTERS[e.keyword];
+  if (drafter) return drafter(e, path, root);
+  return {
+    code: 'wrong-type',
+    path,
+    prefer: 'value',
+    message: `expected a valid value, got ${describeValue(e.data)} (${e.message ?? e.keyword})`,
+  };
 }
 
 /**
@@ -252,7 +270,7 @@ export function mapSchemaErrors(
   prefix: ConfigPath = [],
 ): ConfigError[] {
   const { kept, drafts } = foldAnyOf([...errors]);
-  const all = [...drafts, ...kept.map((e) => draftError(e, root)).filter((d) => d !== undefined)];
+  const all = [...drafts, ...kept.map((e) => draftError(e, root))];
   const seen = new Set<string>();
   const out: ConfigError[] = [];
   for (const draft of all) {

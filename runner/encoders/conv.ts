@@ -74,10 +74,10 @@ function convolve(
   const n = x.shape[0];
   const { height, width, inChannels: c, outHeight, outWidth } = stage;
   const positions = outHeight * outWidth;
-  const channelRows = tf.reshape(
-    tf.transpose(tf.reshape(x, [n, height * width, c]), [0, 2, 1]),
-    [n * c, height * width],
-  ); // [n·C, H·W]
+  const channelRows = tf.reshape(tf.transpose(tf.reshape(x, [n, height * width, c]), [0, 2, 1]), [
+    n * c,
+    height * width,
+  ]); // [n·C, H·W]
   const gathered = tf.reshape(matMul(channelRows as tf.Tensor2D, patches), [n, c, positions, 9]);
   const columns = tf.reshape(tf.transpose(gathered, [0, 2, 3, 1]), [n * positions, 9 * c]);
   const out = tf.relu(dense(columns as tf.Tensor2D, filters, bias)); // [n·P, C']
@@ -99,7 +99,8 @@ async function buildConv(context: EncoderContext, rng: Rng): Promise<TfEncoder> 
     { name: `k${i + 1}`, shape: [s.outChannels], init: 'zeros' as const },
   ]);
   const last = stages[stages.length - 1];
-  const flat = last === undefined ? context.obsDim : last.outHeight * last.outWidth * last.outChannels;
+  const flat =
+    last === undefined ? context.obsDim : last.outHeight * last.outWidth * last.outChannels;
   specs.push({ name: 'W', shape: [flat, context.dim], init: 'glorot' });
   specs.push({ name: 'b', shape: [context.dim], init: 'zeros' });
   const variables = toVariables(

@@ -26,7 +26,8 @@ function fusedDense(activation: FusedKind, inputGrad: boolean) {
       gradFunc: (dy: tf.Tensor | tf.Tensor[], saved: tf.Tensor[]) => {
         const [sx, sw, sy] = saved as [tf.Tensor2D, tf.Tensor2D, tf.Tensor2D];
         // relu'(z) = 1 where the output is positive (Nair & Hinton, 2010). [n, out]
-        const g = activation === 'relu' ? tf.mul(dy as tf.Tensor2D, tf.step(sy)) : (dy as tf.Tensor2D);
+        const g =
+          activation === 'relu' ? tf.mul(dy as tf.Tensor2D, tf.step(sy)) : (dy as tf.Tensor2D);
         const dx = inputGrad ? tf.matMul(g, tf.transpose(sw)) : tf.zerosLike(sx);
         return [dx, tf.matMul(tf.transpose(sx), g), tf.sum(g, 0)];
       },
@@ -44,7 +45,13 @@ const fused = {
  * is on (fast-matmul.ts); otherwise TF.js's own ops and gradients (the bench's baseline).
  * `first` marks a layer whose input is data, so no input gradient is needed.
  */
-export function denseLayer(x: tf.Tensor2D, w: tf.Variable, b: tf.Variable, activation: FusedKind, first: boolean): tf.Tensor2D {
+export function denseLayer(
+  x: tf.Tensor2D,
+  w: tf.Variable,
+  b: tf.Variable,
+  activation: FusedKind,
+  first: boolean,
+): tf.Tensor2D {
   if (!isFastMatMul()) {
     const z = dense(x, w, b);
     return activation === 'relu' ? tf.relu(z) : z;

@@ -12,7 +12,11 @@ import { activate, dense, denseLayer, layerNorm, toVariables } from './layers.ts
  * Builds the dense stack (MLP, or linear when `config.kind` is 'linear'). `inputIsData`
  * false keeps the input gradient of the first layer (a decoder fed by an encoder needs it).
  */
-export function buildDenseEncoder(context: EncoderContext, rng: Rng, inputIsData = true): TfEncoder {
+export function buildDenseEncoder(
+  context: EncoderContext,
+  rng: Rng,
+  inputIsData = true,
+): TfEncoder {
   const { config, obsDim, dim } = context;
   const specs = denseLayout(config, obsDim, dim);
   const variables = toVariables(

@@ -104,7 +104,11 @@ async function buildPlugin(context: EncoderContext): Promise<TfEncoder> {
   const where = 'encoder.plugin';
   const relative = context.config.plugin;
   if (relative === undefined || relative === '') {
-    throw new TrainingError('plugin-not-found', "expected a module path, got none; set encoder.plugin: './my-encoder.js'", where);
+    throw new TrainingError(
+      'plugin-not-found',
+      "expected a module path, got none; set encoder.plugin: './my-encoder.js'",
+      where,
+    );
   }
   const file = path.resolve(context.baseDir ?? '.', relative);
   const factory = findFactory(await importPlugin(file, where), file, where);
@@ -119,10 +123,23 @@ async function buildPlugin(context: EncoderContext): Promise<TfEncoder> {
       seed: context.seed,
     });
   } catch (error) {
-    throw new TrainingError('plugin-factory-failed', `expected createEncoder() to return an encoder, it threw: ${(error as Error).message}`, where);
+    throw new TrainingError(
+      'plugin-factory-failed',
+      `expected createEncoder() to return an encoder, it threw: ${(error as Error).message}`,
+      where,
+    );
   }
-  if (encoder === null || typeof encoder !== 'object' || typeof encoder.apply !== 'function' || !Array.isArray(encoder.variables)) {
-    throw new TrainingError('plugin-bad-output', 'expected createEncoder() to return { variables: tf.Variable[], apply(x) }, got something else', where);
+  if (
+    encoder === null ||
+    typeof encoder !== 'object' ||
+    typeof encoder.apply !== 'function' ||
+    !Array.isArray(encoder.variables)
+  ) {
+    throw new TrainingError(
+      'plugin-bad-output',
+      'expected createEncoder() to return { variables: tf.Variable[], apply(x) }, got something else',
+      where,
+    );
   }
   checkOutput(encoder, context, where);
   return {

@@ -7,6 +7,7 @@ import type { Dataset, Episode } from '../data/episode.ts';
 import type { Representation } from '../training/representation.ts';
 import type { EncodedEpisode, EvalContext } from './context.ts';
 import { buildStateDecoders } from './decoders.ts';
+import { EvaluationError } from './evaluation-error.ts';
 import { poolRows, traceCovariance } from './moments.ts';
 import { buildSourceModels } from './transitions.ts';
 
@@ -70,14 +71,18 @@ export function encodeEpisode(
 ): EncodedEpisode {
   const codes = rep.encode(episode.obs, episode.steps);
   if (codes.length !== episode.steps * rep.dim) {
-    throw new RangeError(
+    throw new EvaluationError(
+      'encode-shape',
       `${rep.method}.encode on ${where}: expected [${episode.steps}, ${rep.dim}] = ${episode.steps * rep.dim} values, got ${codes.length}`,
+      'the encoder must return dim values per observation; retrain or fix the plugin',
     );
   }
   for (let i = 0; i < codes.length; i++) {
     if (!Number.isFinite(codes[i])) {
-      throw new RangeError(
-        `${rep.method}.encode on ${where}: non-finite value at step ${Math.floor(i / rep.dim)}, dimension ${i % rep.dim}`,
+      throw new EvaluationError(
+        'encode-non-finite',
+        `${rep.method}.encode on ${where}: expected finite values, got ${codes[i]} at step ${Math.floor(i / rep.dim)}, dimension ${i % rep.dim}`,
+        'the encoder diverged or the observations hold NaN; check the train job log',
       );
     }
   }

@@ -6,6 +6,7 @@ import type { Dataset } from '../data/episode.ts';
 import type { EvalJobSpec } from '../plan/job-spec.ts';
 import type { Representation } from '../training/representation.ts';
 import { buildContext } from './build-context.ts';
+import { EvaluationError } from './evaluation-error.ts';
 import type { MetricRow } from './metric.ts';
 import { suites } from './suites/index.ts';
 
@@ -34,8 +35,10 @@ export function evaluateRepresentation(
 
 function evaluateNow(rep: Representation, dataset: Dataset, spec: EvalJobSpec): Evaluation {
   if (dataset.test.length === 0) {
-    throw new RangeError(
-      `dataset ${dataset.name} has no test episodes: raise data.split.test above 0`,
+    throw new EvaluationError(
+      'no-test-episodes',
+      `dataset ${dataset.name}: expected test episodes, got 0`,
+      'raise data.split.test above 0 or add episodes',
     );
   }
   const context = buildContext(rep, dataset, {

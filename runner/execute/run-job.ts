@@ -163,10 +163,11 @@ export async function runJob(
 export function recordBlocked(
   spec: JobSpec,
   trainId: string,
-  trainStatus: FinishedStatus,
+  trainStatus: FinishedStatus | 'missing',
   settings: JobRunSettings,
 ): Promise<FinishedStatus> {
-  const reason = `not run: its train job ${trainId} ${trainStatus === 'diverged' ? 'diverged' : 'failed'} (see that job's reason)`;
+  const what = trainStatus === 'missing' ? 'has no result' : trainStatus;
+  const reason = `not run: its train job ${trainId} ${what} (see that job's reason)`;
   const provenance = provenanceOf(
     spec,
     settings,

@@ -86,6 +86,7 @@ export async function runSweep(jobs: JobSpec[], options: SweepOptions): Promise<
   const stored = jobs.filter((job) => kept(initial.get(job.id))).length;
   emit({ type: 'planned', total: jobs.length, stored, workers, threads });
 
+  const planned = new Set(jobs.map((job) => job.id));
   const queue = new PQueue({ concurrency: workers });
   const finals = new Map<string, Promise<Final>>();
   let fatal: Error | undefined;
@@ -121,7 +122,11 @@ export async function runSweep(jobs: JobSpec[], options: SweepOptions): Promise<
     const mark = initial.get(spec.id);
     if (kept(mark)) return mark.status;
     if (spec.kind === 'evaluate') {
-      const train = await settle(spec.train);
+      // A train job outside this sweep (a cluster task running evaluations only) is never
+      // run here: its kept result decides.
+      const train = planned.has(spec.trainId)
+        ? await settle(spec.train)
+        : (ledger.stored(spec.trainId)?.status ?? 'missing');
       if (train === 'interrupted') return 'interrupted';
       if (train !== 'done')
         return claimAndRun(spec, () => recordBlocked(spec, spec.trainId, train, settings));

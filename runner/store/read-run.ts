@@ -31,8 +31,9 @@ function readJson(
     text = readFileSync(path, 'utf8');
   } catch (error) {
     const missing = (error as NodeJS.ErrnoException).code === 'ENOENT';
+    if (missing && missingCode === null) return undefined; // no result yet: not a problem
     problems.push({
-      code: missing ? 'store-missing-plan' : 'store-corrupt-file',
+      code: missing && missingCode !== null ? missingCode : 'store-corrupt-file',
       file: path,
       message: missing
         ? 'no plan.json; run `midpath run FILE --out DIR` to create it'
@@ -70,14 +71,9 @@ export function listJobDirs(dir: string): string[] {
     .sort();
 }
 
-async function readResult(
-  dir: string,
-  id: string,
-  problems: StoreProblem[],
-): Promise<JobResult | null> {
+function readResult(dir: string, id: string, problems: StoreProblem[]): JobResult | null {
   const path = resultPathOf(dir, id);
-  if (!existsSync(path)) return null;
-  const value = (await readJson(path, problems, describeResultFault)) as JobResult | undefined;
+  const value = readJson(path, problems, describeResultFault, null) as JobResult | undefined;
   if (value === undefined) return null;
   if (value.id !== id) {
     problems.push({
@@ -110,8 +106,8 @@ export function readRunSync(dir: string): RunContents {
     return { plan: null, results: [], problems };
   }
   const plan =
-    ((await readJson(planPathOf(dir), problems, describePlanFault)) as PlanFile | undefined) ??
-    null;
+    (readJson(planPathOf(dir), problems, describePlanFault, 'store-missing-plan') as
+      PlanFile | undefined) ?? null;
   const found = new Map<string, JobResult>();
   let ids: string[] = [];
   try {

@@ -14,6 +14,11 @@ export type { FitHooks, FitResult } from './method.ts';
  * Fits `method` on `dataset` as `spec` describes. Returns status 'diverged' (never throws)
  * when the loss becomes NaN or infinite; throws TrainingError (with a code) on bad input.
  */
-export function fitMethod(method: MethodConfig, dataset: Dataset, spec: TrainJobSpec, hooks: FitHooks): Promise<FitResult> {
+export function fitMethod(
+  method: MethodConfig,
+  dataset: Dataset,
+  spec: TrainJobSpec,
+  hooks: FitHooks,
+): Promise<FitResult> {
   return methods[method.name]({ method, dataset, spec, hooks });
 }

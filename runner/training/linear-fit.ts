@@ -15,7 +15,11 @@ export function stackObservations(episodes: Episode[]): { x: Matrix; mean: Float
   const obsDim = episodes[0]?.obsDim ?? 0;
   const n = episodes.reduce((a, e) => a + e.steps, 0);
   if (n < 2) {
-    throw new TrainingError('dataset-too-short', `expected at least 2 training observations, got ${n}`, 'data');
+    throw new TrainingError(
+      'dataset-too-short',
+      `expected at least 2 training observations, got ${n}`,
+      'data',
+    );
   }
   const x = new Matrix(n, obsDim);
   const mean = new Float64Array(obsDim);
@@ -39,11 +43,17 @@ export function covariance(x: Matrix, mean: Float64Array): Matrix {
 }
 
 /** Eigenpairs of a symmetric matrix, sorted by eigenvalue (descending unless `ascending`). */
-export function symmetricEigenpairs(m: Matrix, ascending = false): { values: number[]; vectors: Matrix } {
+export function symmetricEigenpairs(
+  m: Matrix,
+  ascending = false,
+): { values: number[]; vectors: Matrix } {
   const sym = new Matrix(m.rows, m.columns);
-  for (let i = 0; i < m.rows; i++) for (let j = 0; j < m.columns; j++) sym.set(i, j, (m.get(i, j) + m.get(j, i)) / 2);
+  for (let i = 0; i < m.rows; i++)
+    for (let j = 0; j < m.columns; j++) sym.set(i, j, (m.get(i, j) + m.get(j, i)) / 2);
   const eig = new EigenvalueDecomposition(sym, { assumeSymmetric: true });
-  const order = eig.realEigenvalues.map((v, i) => [v, i] as const).sort((a, b) => (ascending ? a[0] - b[0] : b[0] - a[0]));
+  const order = eig.realEigenvalues
+    .map((v, i) => [v, i] as const)
+    .sort((a, b) => (ascending ? a[0] - b[0] : b[0] - a[0]));
   const vectors = new Matrix(m.rows, order.length);
   order.forEach(([, i], col) => vectors.setColumn(col, eig.eigenvectorMatrix.getColumn(i)));
   return { values: order.map(([v]) => v), vectors };
@@ -59,13 +69,22 @@ export function scaleColumns(x: Matrix, mean: Float64Array, w: Matrix, c: number
   for (let j = 0; j < w.columns; j++) {
     const col = z.getColumn(j);
     const variance = col.reduce((a, v) => a + v * v, 0) / col.length;
-    if (variance > 1e-12) scaled.setColumn(j, w.getColumn(j).map((v) => v * Math.sqrt(c / variance)));
+    if (variance > 1e-12)
+      scaled.setColumn(
+        j,
+        w.getColumn(j).map((v) => v * Math.sqrt(c / variance)),
+      );
   }
   return scaled;
 }
 
 /** The FitResult of an affine baseline z = (x − mean) W. */
-export function affineResult(context: MethodContext, mean: Float64Array, w: Matrix, info: Record<string, unknown>): FitResult {
+export function affineResult(
+  context: MethodContext,
+  mean: Float64Array,
+  w: Matrix,
+  info: Record<string, unknown>,
+): FitResult {
   const serialised: SerialisedRepresentation = {
     method: context.method.name,
     label: context.method.label,
@@ -79,7 +98,9 @@ export function affineResult(context: MethodContext, mean: Float64Array, w: Matr
     meta: { scale: context.spec.train.scale },
   };
   if (w.columns !== context.spec.dim) {
-    context.hooks.log(`${context.method.label}: dimension ${w.columns} (obsDim ${w.rows} < dim ${context.spec.dim})`);
+    context.hooks.log(
+      `${context.method.label}: dimension ${w.columns} (obsDim ${w.rows} < dim ${context.spec.dim})`,
+    );
   }
   return {
     status: 'done',

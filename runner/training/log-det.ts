@@ -61,6 +61,8 @@ export const logDet = tf.customGrad((...args: unknown[]) => {
   save([inverse]);
   return {
     value: tf.scalar(value),
-    gradFunc: (dy: tf.Tensor | tf.Tensor[], saved: tf.Tensor[]) => [tf.mul(dy as tf.Tensor, saved[0]!)],
+    gradFunc: (dy: tf.Tensor | tf.Tensor[], saved: tf.Tensor[]) => [
+      tf.mul(dy as tf.Tensor, saved[0]!),
+    ],
   };
 }) as unknown as (s: tf.Tensor2D) => tf.Scalar;

@@ -117,7 +117,10 @@ export class NativeEngine implements StepEngine {
  * Builds a native engine. `kernel` defaults to MIDPATH_NATIVE_KERNEL, else the fastest
  * variant the CPU runs. Throws an Error saying why when the engine cannot be built.
  */
-export function createNativeEngine(options: EngineOptions, kernel = requestedKernel()): Promise<StepEngine> {
+export function createNativeEngine(
+  options: EngineOptions,
+  kernel = requestedKernel(),
+): Promise<StepEngine> {
   try {
     const status = loadNativeAddon();
     if (!status.ok) throw new Error(status.why);

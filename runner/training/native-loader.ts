@@ -84,7 +84,8 @@ export interface NativeAddon {
 }
 
 /** The addon, or why it cannot be used. */
-export type NativeStatus = { ok: true; addon: NativeAddon; path: string } | { ok: false; why: string };
+export type NativeStatus =
+  { ok: true; addon: NativeAddon; path: string } | { ok: false; why: string };
 
 /** Where `npm ci` puts the addon. */
 export const builtAddonPath = fileURLToPath(
@@ -95,7 +96,10 @@ let cached: NativeStatus | undefined;
 
 function loadFrom(path: string): NativeStatus {
   if (!existsSync(path)) {
-    return { ok: false, why: `the addon is not built (${path} is missing; run \`npm ci\` with a C++ toolchain)` };
+    return {
+      ok: false,
+      why: `the addon is not built (${path} is missing; run \`npm ci\` with a C++ toolchain)`,
+    };
   }
   try {
     const addon = createRequire(import.meta.url)(path) as NativeAddon;

@@ -32,8 +32,8 @@ export function criticLogits(
   const uu = tf.sum(tf.square(u), 1, true); // [B, 1]
   const vv = tf.reshape(tf.sum(tf.square(zy), 1), [1, -1]); // [1, B]
   // −½‖u_i − v_j‖² = u_i·v_j − ½‖u_i‖² − ½‖v_j‖², expanded so the cross term is one product.
-  const logits = tf.sub(matMulTransB(u, zy), tf.mul(tf.add(uu, vv), 0.5)) as tf.Tensor2D;
-  const positives = tf.mul(tf.sum(tf.square(tf.sub(u, zy)), 1), -0.5) as tf.Tensor1D;
+  const logits = tf.sub<tf.Tensor2D>(matMulTransB(u, zy), tf.mul(tf.add(uu, vv), 0.5));
+  const positives = tf.mul<tf.Tensor1D>(tf.sum(tf.square(tf.sub(u, zy)), 1), -0.5);
   return { logits, positives };
 }
 
@@ -92,10 +92,13 @@ export function regulariser(
     }
     case 'kl': {
       const mu = tf.mean(z, 0, true); // [1, d]
-      const centred = tf.sub(z, mu) as tf.Tensor2D;
-      const cov = tf.div(matMul(tf.transpose(centred), centred), n) as tf.Tensor2D; // [d, d]
+      const centred = tf.sub<tf.Tensor2D>(z, mu);
+      const cov = tf.div<tf.Tensor2D>(matMul(tf.transpose(centred), centred), n); // [d, d]
       const trace = tf.sum(tf.mul(cov, tf.eye(d)));
-      const inner = tf.add(tf.div(tf.add(trace, tf.sum(tf.square(mu))), scale), d * Math.log(scale) - d);
+      const inner = tf.add(
+        tf.div(tf.add(trace, tf.sum(tf.square(mu))), scale),
+        d * Math.log(scale) - d,
+      );
       return tf.mul(tf.sub(inner, logDet(cov)), 0.5 * weight);
     }
   }

@@ -24,7 +24,13 @@ export type SerialisedModel =
   /** z = (x − mean) W; arrays `mean` [obsDim], `W` [obsDim, dim] (scaling folded in). */
   | { kind: 'affine' }
   /** A TF.js encoder; arrays `p0…` in its variable order; optional `outMean`, `outScale` [dim]. */
-  | { kind: 'encoder'; encoder: EncoderConfig; imageShape?: [number, number]; baseDir?: string; seed: number }
+  | {
+      kind: 'encoder';
+      encoder: EncoderConfig;
+      imageShape?: [number, number];
+      baseDir?: string;
+      seed: number;
+    }
   /** Exact-match table of observations; arrays `keys` [n, obsDim], `values` [n, dim]. */
   | { kind: 'lookup' };
 
@@ -73,13 +79,18 @@ function encodeLookup(s: SerialisedRepresentation): Representation['encode'] {
   const { obsDim, dim } = s;
   const index = new Map<string, number>();
   const n = keys.length / obsDim;
-  for (let i = n - 1; i >= 0; i--) index.set(keys.subarray(i * obsDim, (i + 1) * obsDim).join(','), i);
+  for (let i = n - 1; i >= 0; i--)
+    index.set(keys.subarray(i * obsDim, (i + 1) * obsDim).join(','), i);
   return (obs, count) => {
     const out = new Float32Array(count * dim);
     for (let i = 0; i < count; i++) {
       const at = index.get(obs.subarray(i * obsDim, (i + 1) * obsDim).join(','));
       if (at === undefined) {
-        throw new TrainingError('embeddings-shape', `expected an observation of the dataset, got one with no precomputed embedding (row ${i})`, s.label);
+        throw new TrainingError(
+          'embeddings-shape',
+          `expected an observation of the dataset, got one with no precomputed embedding (row ${i})`,
+          s.label,
+        );
       }
       out.set(values.subarray(at * dim, (at + 1) * dim), i * dim);
     }
@@ -87,10 +98,20 @@ function encodeLookup(s: SerialisedRepresentation): Representation['encode'] {
   };
 }
 
-async function encodeWithEncoder(s: SerialisedRepresentation, model: Extract<SerialisedModel, { kind: 'encoder' }>): Promise<Representation['encode']> {
+async function encodeWithEncoder(
+  s: SerialisedRepresentation,
+  model: Extract<SerialisedModel, { kind: 'encoder' }>,
+): Promise<Representation['encode']> {
   await selectBackend();
   const encoder = await buildEncoder(
-    { config: model.encoder, obsDim: s.obsDim, dim: s.dim, seed: model.seed, ...(model.imageShape === undefined ? {} : { imageShape: model.imageShape }), ...(model.baseDir === undefined ? {} : { baseDir: model.baseDir }) },
+    {
+      config: model.encoder,
+      obsDim: s.obsDim,
+      dim: s.dim,
+      seed: model.seed,
+      ...(model.imageShape === undefined ? {} : { imageShape: model.imageShape }),
+      ...(model.baseDir === undefined ? {} : { baseDir: model.baseDir }),
+    },
     createRng(model.seed).fork('init'),
   );
   encoder.variables.forEach((v, i) => {
@@ -109,7 +130,8 @@ async function encodeWithEncoder(s: SerialisedRepresentation, model: Extract<Ser
       out.set(z, start * s.dim);
     }
     if (outMean !== undefined && outScale !== undefined) {
-      for (let i = 0; i < out.length; i++) out[i] = (out[i]! - outMean[i % s.dim]!) * outScale[i % s.dim]!;
+      for (let i = 0; i < out.length; i++)
+        out[i] = (out[i]! - outMean[i % s.dim]!) * outScale[i % s.dim]!;
     }
     return out;
   };
@@ -119,7 +141,8 @@ async function encodeWithEncoder(s: SerialisedRepresentation, model: Extract<Ser
 function criticOf(s: SerialisedRepresentation): Representation['critic'] {
   if (s.critic === undefined || s.critic.kind === 'inner') return undefined;
   let a: Mat = identity(s.dim);
-  if (s.critic.kind === 'distance') a = { rows: s.dim, cols: s.dim, data: Float64Array.from(need(s, 'A').data) };
+  if (s.critic.kind === 'distance')
+    a = { rows: s.dim, cols: s.dim, data: Float64Array.from(need(s, 'A').data) };
   return { A: a, c: s.critic.c };
 }
 

@@ -61,11 +61,15 @@ class TfjsEngine implements StepEngine {
 
   init(params: Float32Array[]): void {
     if (params.length !== this.variables.length) {
-      throw new RangeError(`expected ${this.variables.length} parameter arrays, got ${params.length}`);
+      throw new RangeError(
+        `expected ${this.variables.length} parameter arrays, got ${params.length}`,
+      );
     }
     this.variables.forEach((v, i) => {
       if (params[i]!.length !== v.size) {
-        throw new RangeError(`parameter ${i}: expected ${v.size} values [${v.shape.join(', ')}], got ${params[i]!.length}`);
+        throw new RangeError(
+          `parameter ${i}: expected ${v.size} values [${v.shape.join(', ')}], got ${params[i]!.length}`,
+        );
       }
     });
     this.adam = this.newOptimiser(params.map((p) => Float32Array.from(p)));
@@ -74,7 +78,9 @@ class TfjsEngine implements StepEngine {
 
   /** Copies the host parameters into the TF.js variables. */
   private upload(): void {
-    this.variables.forEach((v, i) => tf.tidy(() => v.assign(tf.tensor(this.adam.params[i]!, v.shape))));
+    this.variables.forEach((v, i) =>
+      tf.tidy(() => v.assign(tf.tensor(this.adam.params[i]!, v.shape))),
+    );
   }
 
   step(batchX: Float32Array, batchY: Float32Array, batchSize: number): StepStats {

@@ -81,7 +81,14 @@ export async function runTrainingLoop(
     if (!Number.isFinite(stats.loss) || !Number.isFinite(stats.gradNorm)) {
       const reason = `step ${step}: ${describeBlowUp(stats)}; last finite loss ${lastFinite}`;
       hooks.log(`diverged at ${reason}`);
-      return { status: 'diverged', reason, curves, steps: step - 1, stepsPerSecond: rate(step - 1, busy), ...(final === undefined ? {} : { final }) };
+      return {
+        status: 'diverged',
+        reason,
+        curves,
+        steps: step - 1,
+        stepsPerSecond: rate(step - 1, busy),
+        ...(final === undefined ? {} : { final }),
+      };
     }
     lastFinite = stats.loss;
     window.push(stats);
@@ -103,7 +110,13 @@ export async function runTrainingLoop(
       await yieldToEventLoop(); // lets an abort from the runner arrive
     }
   }
-  return { status: 'done', curves, steps: train.steps, stepsPerSecond: rate(train.steps, busy), ...(final === undefined ? {} : { final }) };
+  return {
+    status: 'done',
+    curves,
+    steps: train.steps,
+    stepsPerSecond: rate(train.steps, busy),
+    ...(final === undefined ? {} : { final }),
+  };
 }
 
 function rate(steps: number, ms: number): number {

@@ -14,9 +14,21 @@ describe('conv encoder', () => {
     // Oracle: TF.js's own conv2d forward kernel with explicit padding 1, an independent
     // implementation of the same convolution (Dumoulin & Visin, 2016, §2.4, relation 6).
     const [h, w] = [7, 6];
-    const encoder = await buildEncoder({ config: encoderConfig({ kind: 'conv', channels: [2, 3] }), obsDim: h * w, dim: 4, imageShape: [h, w], seed: 0 }, createRng(3));
+    const encoder = await buildEncoder(
+      {
+        config: encoderConfig({ kind: 'conv', channels: [2, 3] }),
+        obsDim: h * w,
+        dim: 4,
+        imageShape: [h, w],
+        seed: 0,
+      },
+      createRng(3),
+    );
     const rng = createRng(9);
-    const x = tf.tensor2d(Array.from({ length: 5 * h * w }, () => rng.normal()), [5, h * w]);
+    const x = tf.tensor2d(
+      Array.from({ length: 5 * h * w }, () => rng.normal()),
+      [5, h * w],
+    );
     const [k1, c1, k2, c2, wd, bd] = encoder.variables;
     const expected = tf.tidy(() => {
       let t: tf.Tensor4D = tf.reshape(x, [5, h, w, 1]);
@@ -32,15 +44,33 @@ describe('conv encoder', () => {
   });
 
   it('trains on the wasm backend (gradients flow through every parameter)', async () => {
-    const encoder = await buildEncoder({ config: encoderConfig({ kind: 'conv', channels: [2] }), obsDim: 16, dim: 2, imageShape: [4, 4], seed: 0 }, createRng(1));
-    const x = tf.randomNormal([3, 16], 0, 1, 'float32', 2) as tf.Tensor2D;
-    const { grads } = tf.variableGrads(() => tf.sum(tf.square(encoder.apply(x))), encoder.variables);
-    for (const v of encoder.variables) expect(tf.sum(tf.abs(grads[v.name]!)).dataSync()[0]).toBeGreaterThan(0);
+    const encoder = await buildEncoder(
+      {
+        config: encoderConfig({ kind: 'conv', channels: [2] }),
+        obsDim: 16,
+        dim: 2,
+        imageShape: [4, 4],
+        seed: 0,
+      },
+      createRng(1),
+    );
+    const x = tf.randomNormal<tf.Rank.R2>([3, 16], 0, 1, 'float32', 2);
+    const { grads } = tf.variableGrads(
+      () => tf.sum(tf.square(encoder.apply(x))),
+      encoder.variables,
+    );
+    for (const v of encoder.variables)
+      expect(tf.sum(tf.abs(grads[v.name]!)).dataSync()[0]).toBeGreaterThan(0);
     tf.dispose([x, ...Object.values(grads)]);
     encoder.dispose();
   });
 
   it('refuses a dataset without images, with a code', async () => {
-    await expect(buildEncoder({ config: encoderConfig({ kind: 'conv' }), obsDim: 10, dim: 2, seed: 0 }, createRng(0))).rejects.toMatchObject({ code: 'encoder-needs-images' });
+    await expect(
+      buildEncoder(
+        { config: encoderConfig({ kind: 'conv' }), obsDim: 10, dim: 2, seed: 0 },
+        createRng(0),
+      ),
+    ).rejects.toMatchObject({ code: 'encoder-needs-images' });
   });
 });

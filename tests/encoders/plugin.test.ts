@@ -13,7 +13,16 @@ beforeAll(async () => {
 });
 
 function build(plugin: string) {
-  return buildEncoder({ config: encoderConfig({ kind: 'plugin', plugin }), obsDim: 6, dim: 3, seed: 1, baseDir: fixtures }, createRng(0));
+  return buildEncoder(
+    {
+      config: encoderConfig({ kind: 'plugin', plugin }),
+      obsDim: 6,
+      dim: 3,
+      seed: 1,
+      baseDir: fixtures,
+    },
+    createRng(0),
+  );
 }
 
 describe('plugin encoders', () => {

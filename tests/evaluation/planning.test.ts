@@ -4,7 +4,11 @@ import { createMazeEnvironment } from '../../runner/data/maze/maze-environment.t
 import { buildContext } from '../../runner/evaluation/build-context.ts';
 import { rollOut, type CellCodes } from '../../runner/evaluation/planning/greedy-controller.ts';
 import { drawPlanningTasks } from '../../runner/evaluation/planning/planning-tasks.ts';
-import { runPlanningSuite } from '../../runner/evaluation/suites/planning.ts';
+import {
+  encodeCells,
+  planningArms,
+  runPlanningSuite,
+} from '../../runner/evaluation/suites/planning.ts';
 import { taskRng } from '../../runner/evaluation/tasks.ts';
 import { createRng } from '../../runner/numeric/random.ts';
 import { evalConfig, identityRepresentation } from './fixtures.ts';
@@ -99,13 +103,43 @@ describe('planning', () => {
     // between start and goal; in an open room those targets lie on the segment, inside the
     // box spanned by start and goal, so every trial succeeds, including T ≥ 2 waypoints.
     const maze = coordinateMaze(OPEN_ROOM);
-    const config = evalConfig({ suites: ['planning'], transitions: ['critic'], planning: { tasks: 12, budget: 3 } });
+    const config = evalConfig({
+      suites: ['planning'],
+      transitions: ['critic'],
+      planning: { tasks: 12, budget: 3 },
+    });
     const c = 1e6;
     const rep = identityRepresentation(2, { a: Math.sqrt(1 + 1 / c), c });
     const context = buildContext(rep, mazeDataset(maze), { config, discount: 0.8, scale: 1 });
     const rows = runPlanningSuite(context).metrics.filter((m) => m.metric === 'planning_success');
     expect(rows.map((r) => r.level)).toContain('8-10'); // shortest ≥ 8 → T = 2 waypoints
     for (const r of rows) expect(r.value).toBe(1);
+  });
+
+  it('hands the controller T waypoint targets then the goal, for every arm', () => {
+    // Row 1, col 1 → row 5, col 7 (shortest 10) with T = 2: bridge targets at c → ∞ are the
+    // interpolation points 1/3 and 2/3 of the way (MATH.md §3); the oracle's lie on a
+    // shortest path at steps round(10/3) = 3 and round(20/3) = 7.
+    const maze = coordinateMaze(OPEN_ROOM);
+    const c = 1e9;
+    const rep = identityRepresentation(2, { a: Math.sqrt(1 + 1 / c), c });
+    const config = evalConfig({ suites: ['planning'], transitions: ['critic'] });
+    const context = buildContext(rep, mazeDataset(maze), { config, discount: 0.8, scale: 1 });
+    const arms = planningArms(context, maze, encodeCells(context, maze));
+    expect(arms.map((a) => a.name)).toEqual(['straight', 'waypoints', 'interpolated', 'oracle']);
+    const task = { start: 1 * 9 + 1, goal: 5 * 9 + 7, shortest: 10, bin: '8-10' };
+    expect(Array.from(arms[0]!.targets(task, 2))).toEqual([5, 7]);
+    const expected = [1 + 4 / 3, 1 + 2, 1 + 8 / 3, 1 + 4, 5, 7];
+    for (const arm of [arms[1]!, arms[2]!]) {
+      const targets = Array.from(arm.targets(task, 2));
+      expect(targets.length).toBe(6);
+      targets.forEach((v, i) => expect(v).toBeCloseTo(expected[i]!, 4));
+    }
+    const oracle = Array.from(arms[3]!.targets(task, 2));
+    expect(oracle.length).toBe(6);
+    const [r1, c1, r2, c2] = oracle;
+    expect(Math.abs(r1! - 1) + Math.abs(c1! - 1)).toBe(3);
+    expect(Math.abs(r2! - 1) + Math.abs(c2! - 1)).toBe(7);
   });
 
   it('stratifies tasks into equal distance bins whose labels hold their shortest paths', () => {

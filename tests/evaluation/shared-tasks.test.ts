@@ -2,6 +2,7 @@ import { describe, expect, it } from 'vitest';
 import { buildContext } from '../../runner/evaluation/build-context.ts';
 import { tasksFor } from '../../runner/evaluation/context.ts';
 import { evaluateRepresentation } from '../../runner/evaluation/evaluate.ts';
+import { runAssumptionsSuite } from '../../runner/evaluation/suites/assumptions.ts';
 import { retrievalRanks } from '../../runner/evaluation/suites/retrieval.ts';
 import { drawChainTasks, taskRng } from '../../runner/evaluation/tasks.ts';
 import {
@@ -111,5 +112,58 @@ describe('retrievalRanks', () => {
         retrievalRanks(Float64Array.from([0, 10, 20]), Float64Array.from([1, 10, 30]), 3, 1),
       ),
     ).toEqual([1, 1, 2]);
+  });
+});
+
+describe('bad representations', () => {
+  it('fail with a stable code naming the episode, step and dimension', () => {
+    const dataset = stateDataset({ stateDim: 2, steps: 5, train: 1, test: 2, seed: 1 });
+    const settings = { config: evalConfig(), discount: 0.8, scale: 1 };
+    const short = { ...identityRepresentation(2), encode: () => new Float32Array(3) };
+    expect(() => buildContext(short, dataset, settings)).toThrow(
+      expect.objectContaining({
+        code: 'encode-shape',
+        message: expect.stringMatching(/expected \[5, 2\] = 10 values, got 3/) as string,
+      }),
+    );
+    const nan = {
+      ...identityRepresentation(2),
+      encode: (_: Float32Array, n: number) => new Float32Array(n * 2).fill(NaN),
+    };
+    expect(() => buildContext(nan, dataset, settings)).toThrow(
+      expect.objectContaining({
+        code: 'encode-non-finite',
+        message: expect.stringMatching(/step 0, dimension 0/) as string,
+      }),
+    );
+  });
+
+  it('refuse a dataset without test episodes with a stable code', async () => {
+    const dataset = {
+      ...stateDataset({ stateDim: 2, steps: 5, train: 1, test: 1, seed: 1 }),
+      test: [],
+    };
+    await expect(
+      evaluateRepresentation(identityRepresentation(2), dataset, evalSpec(evalConfig())),
+    ).rejects.toMatchObject({
+      code: 'no-test-episodes',
+    });
+  });
+
+  it('still get marginal diagnostics when the covariance is singular', () => {
+    // A constant dimension: Mardia and Henze–Zirkler need S⁻¹ and are skipped with a note;
+    // KS and the eigenvalues (one of them 0) still report the collapse.
+    const dataset = stateDataset({ stateDim: 2, steps: 30, train: 2, test: 10, seed: 1 });
+    const flat = {
+      ...identityRepresentation(2),
+      encode: (obs: Float32Array, n: number) =>
+        Float32Array.from({ length: n * 2 }, (_, i) => (i % 2 === 0 ? obs[i]! : 0)),
+    };
+    const config = evalConfig({ suites: ['assumptions'], transitions: [] });
+    const context = buildContext(flat, dataset, { config, discount: 0.8, scale: 1 });
+    const out = runAssumptionsSuite(context);
+    expect(out.metrics.some((m) => m.metric === 'hz_p')).toBe(false);
+    expect(out.metrics.find((m) => m.metric === 'cov_eig_min')!.value).toBeCloseTo(0, 12);
+    expect((out.artifacts as { skipped: string }).skipped).toMatch(/singular/);
   });
 });

@@ -28,14 +28,38 @@ interface Variant {
 
 const variants: Variant[] = [
   { name: 'linear, distance, kl', encoder: { kind: 'linear' }, train: { regulariser: 'kl' } },
-  { name: 'linear, inner, penalty', encoder: { kind: 'linear' }, train: { critic: 'inner', loss: 'forward' } },
-  { name: 'tanh + layer norm', encoder: { activation: 'tanh', layerNorm: true }, train: { critic: 'inner', regulariser: 'kl' } },
+  {
+    name: 'linear, inner, penalty',
+    encoder: { kind: 'linear' },
+    train: { critic: 'inner', loss: 'forward' },
+  },
+  {
+    name: 'tanh + layer norm',
+    encoder: { activation: 'tanh', layerNorm: true },
+    train: { critic: 'inner', regulariser: 'kl' },
+  },
   { name: 'gelu', encoder: { activation: 'gelu' }, train: { loss: 'backward' } },
-  { name: 'gelu + layer norm', encoder: { activation: 'gelu', layerNorm: true }, train: { critic: 'distance-identity' } },
-  { name: 'elu', encoder: { activation: 'elu' }, train: { critic: 'inner', loss: 'backward', regulariser: 'none' } },
-  { name: 'elu + layer norm', encoder: { activation: 'elu', layerNorm: true }, train: { loss: 'forward', regulariser: 'kl' } },
+  {
+    name: 'gelu + layer norm',
+    encoder: { activation: 'gelu', layerNorm: true },
+    train: { critic: 'distance-identity' },
+  },
+  {
+    name: 'elu',
+    encoder: { activation: 'elu' },
+    train: { critic: 'inner', loss: 'backward', regulariser: 'none' },
+  },
+  {
+    name: 'elu + layer norm',
+    encoder: { activation: 'elu', layerNorm: true },
+    train: { loss: 'forward', regulariser: 'kl' },
+  },
   { name: 'relu', encoder: { activation: 'relu' }, train: {} },
-  { name: 'relu + layer norm', encoder: { activation: 'relu', layerNorm: true }, train: { critic: 'inner', regulariser: 'kl' } },
+  {
+    name: 'relu + layer norm',
+    encoder: { activation: 'relu', layerNorm: true },
+    train: { critic: 'inner', regulariser: 'kl' },
+  },
 ];
 
 describe.skipIf(nativeAddonForTests() === undefined)('native vs TF.js: encoders', () => {
@@ -55,6 +79,8 @@ describe.skipIf(nativeAddonForTests() === undefined)('native vs TF.js: encoders'
     native.dispose();
     expect(expected[0]! - expected[299]!).toBeGreaterThan(0.1);
     const kinked = options.encoder.kind === 'mlp' && options.encoder.activation === 'relu';
-    expect(curveGap(expected, actual).gap).toBeLessThan(kinked ? kinkedCurveTolerance : curveTolerance);
+    expect(curveGap(expected, actual).gap).toBeLessThan(
+      kinked ? kinkedCurveTolerance : curveTolerance,
+    );
   });
 });

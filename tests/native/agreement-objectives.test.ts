@@ -49,7 +49,10 @@ describe.skipIf(nativeAddonForTests() === undefined)('native vs TF.js: objective
 
   it('has the power to see a 5 % learning-rate error', async () => {
     const options = agreementOptions({ kind: 'mlp', activation: 'tanh' }, {});
-    const wrong = agreementOptions({ kind: 'mlp', activation: 'tanh' }, { lr: options.train.lr * 1.05 });
+    const wrong = agreementOptions(
+      { kind: 'mlp', activation: 'tanh' },
+      { lr: options.train.lr * 1.05 },
+    );
     const params = initialParams(options, 5);
     const reference = await createTfjsEngine(options);
     const native = await createNativeEngine(wrong);

@@ -58,7 +58,10 @@ export function agreementOptions(
 /** `count` batches of pairs y = x M + 0.3 ε from a fixed seed: [batch, obsDim] each. */
 export function makeBatches(count: number, seed: number): Batch[] {
   const rng = createRng(seed);
-  const mix = Float32Array.from({ length: obsDim * obsDim }, () => rng.normal() / Math.sqrt(obsDim));
+  const mix = Float32Array.from(
+    { length: obsDim * obsDim },
+    () => rng.normal() / Math.sqrt(obsDim),
+  );
   const batches: Batch[] = [];
   for (let b = 0; b < count; b++) {
     const x = Float32Array.from({ length: batchSize * obsDim }, () => rng.normal());

@@ -34,11 +34,28 @@ const sizes: [number, number, number][] = [
 ];
 const cases: Case[] = sizes.flatMap(([m, n, k], i) =>
   [false, true].flatMap((ta) =>
-    [false, true].map((tb) => ({ m, n, k, ta, tb, pad: (i % 3) + 1, alpha: 0.75, beta: i % 2 === 0 ? 0 : -0.5 })),
+    [false, true].map((tb) => ({
+      m,
+      n,
+      k,
+      ta,
+      tb,
+      pad: (i % 3) + 1,
+      alpha: 0.75,
+      beta: i % 2 === 0 ? 0 : -0.5,
+    })),
   ),
 );
 
-function naive(c: Case, a: Float32Array, lda: number, b: Float32Array, ldb: number, c0: Float32Array, ldc: number): Float64Array {
+function naive(
+  c: Case,
+  a: Float32Array,
+  lda: number,
+  b: Float32Array,
+  ldb: number,
+  c0: Float32Array,
+  ldc: number,
+): Float64Array {
   const out = new Float64Array(c.m * c.n);
   for (let i = 0; i < c.m; i++) {
     for (let j = 0; j < c.n; j++) {
@@ -68,7 +85,9 @@ describe.skipIf(addon === undefined)('native sgemm', () => {
       const ldc = c.n + c.pad;
       const a = Float32Array.from({ length: (c.ta ? c.k : c.m) * lda }, () => rng.normal());
       const b = Float32Array.from({ length: (c.tb ? c.n : c.k) * ldb }, () => rng.normal());
-      const c0 = Float32Array.from({ length: c.m * ldc }, () => (c.beta === 0 ? Number.NaN : rng.normal()));
+      const c0 = Float32Array.from({ length: c.m * ldc }, () =>
+        c.beta === 0 ? Number.NaN : rng.normal(),
+      );
       const out = Float32Array.from(c0);
       addon!.sgemm(kernel, c.ta, c.tb, c.m, c.n, c.k, c.alpha, a, lda, b, ldb, c.beta, out, ldc);
       const want = naive(c, a, lda, b, ldb, c0, ldc);
@@ -93,8 +112,8 @@ describe.skipIf(addon === undefined)('native sgemm', () => {
 
   it('refuses a kernel name it does not know, naming the choices', () => {
     const one = new Float32Array(1);
-    expect(() => addon!.sgemm('sse9' as NativeKernel, false, false, 1, 1, 1, 1, one, 1, one, 1, 0, one, 1)).toThrow(
-      /auto, portable, avx2 or avx512/,
-    );
+    expect(() =>
+      addon!.sgemm('sse9' as NativeKernel, false, false, 1, 1, 1, 1, one, 1, one, 1, 0, one, 1),
+    ).toThrow(/auto, portable, avx2 or avx512/);
   });
 });

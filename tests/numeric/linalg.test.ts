@@ -27,6 +27,8 @@ import {
   solveLowerTranspose,
   solveLowerTransposeRowsInPlace,
   solveSpd,
+  solveUpperRowsInPlace,
+  transpose,
   symmetricEigen,
 } from '../../runner/numeric/linalg/index.ts';
 import { createRng } from '../../runner/numeric/random.ts';
@@ -96,6 +98,12 @@ describe('dense kernels vs ml-matrix', () => {
         expect(maxDiff(rowsT, flat(solve(lower.transpose(), toMl(b)).transpose()))).toBeLessThan(
           1e-9,
         );
+        // Upper factor stored explicitly (U = Lᵀ), rows layout.
+        const rowsU = Float64Array.from(toMl(b).transpose().to1DArray());
+        solveUpperRowsInPlace(transpose(l).data, n, rowsU, k);
+        expect(maxDiff(rowsU, flat(solve(lower.transpose(), toMl(b)).transpose()))).toBeLessThan(
+          1e-9,
+        );
       }),
       { numRuns: 40 },
     );
@@ -128,7 +136,7 @@ describe('dense kernels vs ml-matrix', () => {
         const b = randomMat(n, k, seed + 5);
         expect(maxDiff(solveSpd(a, b).data, flat(solve(toMl(a), toMl(b))))).toBeLessThan(1e-10);
         expect(maxDiff(inverseSpd(a).data, flat(inverse(toMl(a))))).toBeLessThan(1e-10);
-        // log det via the product of LU pivots in ml-matrix's det().
+        // log det against ml-matrix's determinant (LU pivots).
         expect(logDetSpd(a)).toBeCloseTo(Math.log(determinant(toMl(a))), 8);
       }),
       { numRuns: 40 },

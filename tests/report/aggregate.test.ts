@@ -121,7 +121,9 @@ describe('markBest', () => {
     expect(mark({ ...at, method: 'contrastive', source: 'fitted' })).toBe('best');
     expect(mark({ ...at, method: 'pca', source: 'fitted' })).toBe('');
     // The oracle rows (true model) are identical across methods: all tie with the best.
-    expect(mark({ ...at, metric: 'forecast_nmse_oracle', method: 'pca', source: 'true' })).toBe('tie');
+    expect(mark({ ...at, metric: 'forecast_nmse_oracle', method: 'pca', source: 'true' })).toBe(
+      'tie',
+    );
     expect(mark({ ...at, method: 'contrastive', source: 'critic' })).toBe('');
   });
 
@@ -134,6 +136,8 @@ describe('markBest', () => {
       'best',
     );
     expect(of({ dim: '8', method: SPECIAL_LABEL, metric: 'coverage_90', level: 1 })).toBe('');
-    expect(['best', 'tie']).toContain(of({ dim: '8', method: 'pca', metric: 'coverage_90', level: 1 }));
+    expect(['best', 'tie']).toContain(
+      of({ dim: '8', method: 'pca', metric: 'coverage_90', level: 1 }),
+    );
   });
 });

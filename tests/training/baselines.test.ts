@@ -42,10 +42,15 @@ function stacked(episodes: Episode[]): { obs: Float32Array; n: number } {
 
 describe('PCA baseline', () => {
   it('spans the same leading directions as ml-pca and scales them to variance c', async () => {
-    const spec = trainSpec({ method: { name: 'pca', label: 'pca' }, train: trainConfig({ scale: 2 }) });
+    const spec = trainSpec({
+      method: { name: 'pca', label: 'pca' },
+      train: trainConfig({ scale: 2 }),
+    });
     const dataset = await loadDataset(spec.data, '.');
     const { obs, n } = stacked(dataset.train);
-    const rows = Array.from({ length: n }, (_, i) => Array.from(obs.subarray(i * 12, (i + 1) * 12)));
+    const rows = Array.from({ length: n }, (_, i) =>
+      Array.from(obs.subarray(i * 12, (i + 1) * 12)),
+    );
     // ml-pca (an independent implementation, SVD of the centred data) as the oracle.
     const oracle = new PCA(rows, { center: true, scale: false });
     const ours = principalDirections(dataset.train, 4);
@@ -54,7 +59,7 @@ describe('PCA baseline', () => {
       let dot = 0;
       for (let f = 0; f < 12; f++) dot += ours.w.get(f, k) * theirs.get(k, f);
       expect(Math.abs(dot)).toBeCloseTo(1, 4); // unit vectors, equal up to sign
-      expect(ours.values[k]! * n / (n - 1)).toBeCloseTo(oracle.getEigenvalues()[k]!, 3);
+      expect((ours.values[k]! * n) / (n - 1)).toBeCloseTo(oracle.getEigenvalues()[k]!, 3);
     }
     const fit = await fitMethod(spec.method, dataset, spec, quietHooks());
     const z = fit.representation.encode(obs, n);
@@ -83,7 +88,14 @@ describe('slow feature analysis', () => {
     const y = x.clone().subRowVector(Array.from(mean)).mmul(w).getColumn(0);
     expect(Math.abs(correlation(y, source))).toBeGreaterThan(0.99);
     // The fastest-but-one direction is not slow: x2 = cos 11t alone correlates ~0 with sin t.
-    expect(Math.abs(correlation(Array.from({ length: steps }, (_, t) => obs[t * obsDim + 1]!), source))).toBeLessThan(0.1);
+    expect(
+      Math.abs(
+        correlation(
+          Array.from({ length: steps }, (_, t) => obs[t * obsDim + 1]!),
+          source,
+        ),
+      ),
+    ).toBeLessThan(0.1);
   });
 });
 
@@ -93,7 +105,12 @@ describe('other baselines', () => {
     const dataset: Dataset = await loadDataset(spec.data, '.');
     const { obs, n } = stacked(dataset.train);
     for (const name of ['raw', 'random', 'sfa'] as const) {
-      const fit = await fitMethod({ name, label: name }, dataset, { ...spec, method: { name, label: name } }, quietHooks());
+      const fit = await fitMethod(
+        { name, label: name },
+        dataset,
+        { ...spec, method: { name, label: name } },
+        quietHooks(),
+      );
       const d = fit.representation.dim;
       expect(d).toBe(name === 'random' ? 4 : 3); // raw is the identity on obsDim 3 ≤ d 4
       const z = fit.representation.encode(obs, n);

@@ -24,12 +24,19 @@ describe('contrastive training on the linear-Gaussian dataset', () => {
     // only met by learning, and leaves room for a 300-step budget.
     const data = smallData({ noise: 0.1 });
     const dataset = await loadDataset(data, '.');
-    const spec = (steps: number) => trainSpec({ data, encoder: encoderConfig({ widths: [32] }), train: trainConfig({ steps, batch: 64, logEvery: 100 }) });
+    const spec = (steps: number) =>
+      trainSpec({
+        data,
+        encoder: encoderConfig({ widths: [32] }),
+        train: trainConfig({ steps, batch: 64, logEvery: 100 }),
+      });
     const trained = await fitMethod(spec(300).method, dataset, spec(300), quietHooks());
     const untrained = await fitMethod(spec(0).method, dataset, spec(0), quietHooks());
     const r2 = heldOutR2(trained.representation, dataset.train, dataset.test);
     expect(r2).toBeGreaterThan(0.9);
-    expect(r2).toBeGreaterThan(heldOutR2(untrained.representation, dataset.train, dataset.test) + 0.2);
+    expect(r2).toBeGreaterThan(
+      heldOutR2(untrained.representation, dataset.train, dataset.test) + 0.2,
+    );
     expect(trained.curves.map((c) => c.step)).toEqual([100, 200, 300]);
     expect(trained.curves[2]!.trainLoss).toBeLessThan(trained.curves[0]!.trainLoss);
     expect(trained.representation.critic?.A.rows).toBe(4);
@@ -44,7 +51,9 @@ describe('robustness', () => {
     const lines: string[] = [];
     const fit = await fitMethod(spec.method, dataset, spec, quietHooks(lines));
     expect(fit.status).toBe('diverged');
-    expect(fit.reason).toMatch(/^step \d+: the (InfoNCE term|regulariser term|gradient norm) is (NaN|-?Infinity); last finite loss /);
+    expect(fit.reason).toMatch(
+      /^step \d+: the (InfoNCE term|regulariser term|gradient norm) is (NaN|-?Infinity); last finite loss /,
+    );
     expect(lines.some((l) => l.startsWith('diverged at step'))).toBe(true);
   });
 
@@ -64,7 +73,14 @@ describe('robustness', () => {
   it('leaks no tensors across steps', async () => {
     const spec = trainSpec({ train: trainConfig({ regulariser: 'kl', critic: 'distance' }) });
     const dataset = await loadDataset(smallData({ episodes: 10, steps: 20 }), '.');
-    const engine = await createEngine('tfjs', { encoder: spec.encoder, obsDim: dataset.obsDim, dim: 4, train: spec.train, threads: 1, seed: 0 });
+    const engine = await createEngine('tfjs', {
+      encoder: spec.encoder,
+      obsDim: dataset.obsDim,
+      dim: 4,
+      train: spec.train,
+      threads: 1,
+      seed: 0,
+    });
     const sampler = new PairSampler(dataset.train, 0.8);
     const rng = createRng(0);
     const step = () => {
@@ -81,7 +97,14 @@ describe('robustness', () => {
 
   it('reports statistics before the update and round-trips parameters (engine seam)', async () => {
     const spec = trainSpec();
-    const options = { encoder: spec.encoder, obsDim: 12, dim: 4, train: spec.train, threads: 1, seed: 0 };
+    const options = {
+      encoder: spec.encoder,
+      obsDim: 12,
+      dim: 4,
+      train: spec.train,
+      threads: 1,
+      seed: 0,
+    };
     const engine = await createEngine('tfjs', options);
     const init = initDenseParams(spec.encoder, 12, 4, 'distance', createRng(5));
     engine.init(init);

@@ -1,5 +1,10 @@
 /** Shared builders of small configs and specs for the training tests (plain data). */
-import type { DataConfig, EncoderConfig, MethodConfig, TrainConfig } from '../../runner/config/types.ts';
+import type {
+  DataConfig,
+  EncoderConfig,
+  MethodConfig,
+  TrainConfig,
+} from '../../runner/config/types.ts';
 import type { TrainJobSpec } from '../../runner/plan/job-spec.ts';
 import type { FitHooks } from '../../runner/training/method.ts';
 
@@ -25,7 +30,15 @@ export function smallData(overrides: Partial<DataConfig> = {}): DataConfig {
 
 /** Encoder config defaults as the schema resolves them, with overrides. */
 export function encoderConfig(overrides: Partial<EncoderConfig> = {}): EncoderConfig {
-  return { kind: 'mlp', widths: [32], activation: 'relu', layerNorm: false, channels: [4, 8], options: {}, ...overrides };
+  return {
+    kind: 'mlp',
+    widths: [32],
+    activation: 'relu',
+    layerNorm: false,
+    channels: [4, 8],
+    options: {},
+    ...overrides,
+  };
 }
 
 /** Train config defaults, small budget. */
@@ -48,7 +61,17 @@ export function trainConfig(overrides: Partial<TrainConfig> = {}): TrainConfig {
 }
 
 /** A train job spec around the pieces above. */
-export function trainSpec(parts: { method?: MethodConfig; data?: DataConfig; encoder?: EncoderConfig; train?: TrainConfig; dim?: number; seed?: number; baseDir?: string } = {}): TrainJobSpec {
+export function trainSpec(
+  parts: {
+    method?: MethodConfig;
+    data?: DataConfig;
+    encoder?: EncoderConfig;
+    train?: TrainConfig;
+    dim?: number;
+    seed?: number;
+    baseDir?: string;
+  } = {},
+): TrainJobSpec {
   return {
     kind: 'train',
     id: 'test',

@@ -2,7 +2,12 @@ import * as tf from '@tensorflow/tfjs';
 import { beforeAll, describe, expect, it } from 'vitest';
 import type { CriticKind, LossDirection } from '../../runner/config/types.ts';
 import { createRng } from '../../runner/numeric/random.ts';
-import { criticLogits, infoNce, regulariser, retrievalAccuracy } from '../../runner/training/objective.ts';
+import {
+  criticLogits,
+  infoNce,
+  regulariser,
+  retrievalAccuracy,
+} from '../../runner/training/objective.ts';
 import { setupBackend } from './tf-setup.ts';
 
 beforeAll(async () => {
@@ -10,7 +15,13 @@ beforeAll(async () => {
 });
 
 /** Naive reference: every logit by its definition (MATH.md §1), logsumexp without shifting. */
-function naiveLoss(zx: number[][], zy: number[][], a: number[][], critic: CriticKind, direction: LossDirection): number {
+function naiveLoss(
+  zx: number[][],
+  zy: number[][],
+  a: number[][],
+  critic: CriticKind,
+  direction: LossDirection,
+): number {
   const d = zx[0]!.length;
   const b = zx.length;
   const f = (x: number[], y: number[]): number => {
@@ -22,7 +33,8 @@ function naiveLoss(zx: number[][], zy: number[][], a: number[][], critic: Critic
     let s = 0;
     for (let i = 0; i < d; i++) {
       let ax = 0;
-      for (let j = 0; j < d; j++) ax += (critic === 'distance' ? a[i]![j]! : i === j ? 1 : 0) * x[j]!;
+      for (let j = 0; j < d; j++)
+        ax += (critic === 'distance' ? a[i]![j]! : i === j ? 1 : 0) * x[j]!;
       s += (ax - y[i]!) ** 2;
     }
     return -0.5 * s;
@@ -44,9 +56,20 @@ function randomMatrix(rows: number, cols: number, seed: number, sd = 1): number[
   return Array.from({ length: rows }, () => Array.from({ length: cols }, () => rng.normal() * sd));
 }
 
-function lossOf(zx: number[][], zy: number[][], a: number[][], critic: CriticKind, direction: LossDirection): number {
+function lossOf(
+  zx: number[][],
+  zy: number[][],
+  a: number[][],
+  critic: CriticKind,
+  direction: LossDirection,
+): number {
   return tf.tidy(() => {
-    const logits = criticLogits(tf.tensor2d(zx), tf.tensor2d(zy), critic === 'distance-identity' ? null : tf.tensor2d(a), critic);
+    const logits = criticLogits(
+      tf.tensor2d(zx),
+      tf.tensor2d(zy),
+      critic === 'distance-identity' ? null : tf.tensor2d(a),
+      critic,
+    );
     return infoNce(logits, direction).dataSync()[0]!;
   });
 }
@@ -62,7 +85,10 @@ describe('InfoNCE', () => {
         const zx = randomMatrix(6, 3, 1);
         const zy = randomMatrix(6, 3, 2);
         const a = randomMatrix(3, 3, 3, 0.7);
-        expect(lossOf(zx, zy, a, critic, direction)).toBeCloseTo(naiveLoss(zx, zy, a, critic, direction), 4);
+        expect(lossOf(zx, zy, a, critic, direction)).toBeCloseTo(
+          naiveLoss(zx, zy, a, critic, direction),
+          4,
+        );
       });
     }
   }
@@ -99,7 +125,9 @@ describe('InfoNCE', () => {
         [4, 1, 0],
         [0, 0, 2],
       ]);
-      return [retrievalAccuracy(logits, 'forward'), retrievalAccuracy(logits, 'backward')].map((t) => t.dataSync()[0]!);
+      return [retrievalAccuracy(logits, 'forward'), retrievalAccuracy(logits, 'backward')].map(
+        (t) => t.dataSync()[0]!,
+      );
     });
     // Rows: argmax [0, 0, 2] → hits 1 and 3 of 3; columns: argmax [1, 1, 2] → hits 2 and 3.
     expect(acc[0]).toBeCloseTo(2 / 3, 6);
@@ -121,11 +149,19 @@ describe('Gaussian-marginal regulariser', () => {
     const n = z.length;
     const mu = [0, 1, 2].map((j) => z.reduce((s, r) => s + r[j]!, 0) / n);
     const centred = z.map((r) => r.map((v, j) => v - mu[j]!));
-    const cov = (multiply(transpose(matrix(centred)), matrix(centred)) as ReturnType<typeof matrix>).toArray() as number[][];
+    const cov = (
+      multiply(transpose(matrix(centred)), matrix(centred)) as ReturnType<typeof matrix>
+    ).toArray() as number[][];
     const sigma = cov.map((r) => r.map((v) => v / n));
     const c = 2;
     // KL(N(μ, Σ) ‖ N(0, cI)) = ½[tr Σ/c + ‖μ‖²/c − d − ln det Σ + d ln c] (Kullback, 1959).
-    const expected = 0.5 * ((sigma[0]![0]! + sigma[1]![1]! + sigma[2]![2]!) / c + mu.reduce((s, v) => s + v * v, 0) / c - 3 - Math.log(det(sigma)) + 3 * Math.log(c));
+    const expected =
+      0.5 *
+      ((sigma[0]![0]! + sigma[1]![1]! + sigma[2]![2]!) / c +
+        mu.reduce((s, v) => s + v * v, 0) / c -
+        3 -
+        Math.log(det(sigma)) +
+        3 * Math.log(c));
     const value = tf.tidy(() => regulariser(tf.tensor2d(z), 'kl', 1, c).dataSync()[0]!);
     expect(value).toBeCloseTo(expected, 3);
   });

@@ -54,6 +54,8 @@ describe('geometric offsets', () => {
   });
 
   it('rejects episodes too short for any pair, with a code', () => {
-    expect(() => new PairSampler([rampEpisode(1)], 0.5)).toThrow(expect.objectContaining({ code: 'dataset-too-short' }));
+    expect(() => new PairSampler([rampEpisode(1)], 0.5)).toThrow(
+      expect.objectContaining({ code: 'dataset-too-short' }),
+    );
   });
 });

@@ -41,8 +41,17 @@ describe('precomputed representations', () => {
   it('look up .npy embeddings by observation, scaled to variance c', async () => {
     const dataset = await loadDataset(data, '.');
     const states = statesInOrder(dataset);
-    const spec = trainSpec({ data, method: { name: 'precomputed', label: 'mine', path: 'emb.npy' }, train: trainConfig({ scale: 3 }) });
-    const fit = await fitMethod(spec.method, dataset, spec, hooksServing(npyBytes([states.rows, states.dim], states.data)));
+    const spec = trainSpec({
+      data,
+      method: { name: 'precomputed', label: 'mine', path: 'emb.npy' },
+      train: trainConfig({ scale: 3 }),
+    });
+    const fit = await fitMethod(
+      spec.method,
+      dataset,
+      spec,
+      hooksServing(npyBytes([states.rows, states.dim], states.data)),
+    );
     expect(fit.representation.dim).toBe(4);
     const e = dataset.test[1]!;
     const z = fit.representation.encode(e.obs, e.steps);
@@ -53,7 +62,11 @@ describe('precomputed representations', () => {
       const ma = a.reduce((s, v) => s + v, 0) / a.length;
       const mb = b.reduce((s, v) => s + v, 0) / b.length;
       const cov = a.reduce((s, v, i) => s + (v - ma) * (b[i]! - mb), 0);
-      const r = cov / Math.sqrt(a.reduce((s, v) => s + (v - ma) ** 2, 0) * b.reduce((s, v) => s + (v - mb) ** 2, 0));
+      const r =
+        cov /
+        Math.sqrt(
+          a.reduce((s, v) => s + (v - ma) ** 2, 0) * b.reduce((s, v) => s + (v - mb) ** 2, 0),
+        );
       expect(r).toBeCloseTo(1, 5);
     }
   });
@@ -62,18 +75,34 @@ describe('precomputed representations', () => {
     const dataset = await loadDataset(data, '.');
     const states = statesInOrder(dataset);
     const lines = ['episode,step,a,b,c,d'];
-    for (let i = 0; i < states.rows; i++) lines.push(`0,${i},${Array.from(states.data.subarray(i * 4, i * 4 + 4)).join(',')}`);
-    const spec = trainSpec({ data, method: { name: 'precomputed', label: 'mine', path: 'emb.csv' } });
-    const fit = await fitMethod(spec.method, dataset, spec, hooksServing(new TextEncoder().encode(lines.join('\n'))));
+    for (let i = 0; i < states.rows; i++)
+      lines.push(`0,${i},${Array.from(states.data.subarray(i * 4, i * 4 + 4)).join(',')}`);
+    const spec = trainSpec({
+      data,
+      method: { name: 'precomputed', label: 'mine', path: 'emb.csv' },
+    });
+    const fit = await fitMethod(
+      spec.method,
+      dataset,
+      spec,
+      hooksServing(new TextEncoder().encode(lines.join('\n'))),
+    );
     expect(fit.representation.dim).toBe(4);
   });
 
   it('name the expected row count when embeddings do not line up', async () => {
     const dataset = await loadDataset(data, '.');
-    const spec = trainSpec({ data, method: { name: 'precomputed', label: 'mine', path: 'emb.npy' } });
+    const spec = trainSpec({
+      data,
+      method: { name: 'precomputed', label: 'mine', path: 'emb.npy' },
+    });
     const wrong = npyBytes([5, 2], new Float32Array(10));
-    await expect(fitMethod(spec.method, dataset, spec, hooksServing(wrong))).rejects.toMatchObject({ code: 'embeddings-shape' });
+    await expect(fitMethod(spec.method, dataset, spec, hooksServing(wrong))).rejects.toMatchObject({
+      code: 'embeddings-shape',
+    });
     const noPath = trainSpec({ data, method: { name: 'precomputed', label: 'mine' } });
-    await expect(fitMethod(noPath.method, dataset, noPath, quietHooks())).rejects.toMatchObject({ code: 'embeddings-missing' });
+    await expect(fitMethod(noPath.method, dataset, noPath, quietHooks())).rejects.toMatchObject({
+      code: 'embeddings-missing',
+    });
   });
 });

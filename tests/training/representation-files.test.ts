@@ -3,7 +3,10 @@ import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { afterAll, describe, expect, it } from 'vitest';
 import { loadDataset } from '../../runner/data/load-dataset.ts';
-import { loadRepresentation, saveRepresentation } from '../../runner/execute/jobs/representation-files.ts';
+import {
+  loadRepresentation,
+  saveRepresentation,
+} from '../../runner/execute/jobs/representation-files.ts';
 import { trainJob } from '../../runner/execute/jobs/train-job.ts';
 import { fitMethod } from '../../runner/training/fit-method.ts';
 import type { CurvePoint } from '../../runner/training/representation.ts';
@@ -27,14 +30,21 @@ describe('representation files', () => {
     ['sfa', encoderConfig()],
   ] as const) {
     it(`reload a ${name} representation that encodes identically`, async () => {
-      const spec = trainSpec({ data, encoder, method: { name, label: name }, train: trainConfig({ steps: 10, logEvery: 5 }) });
+      const spec = trainSpec({
+        data,
+        encoder,
+        method: { name, label: name },
+        train: trainConfig({ steps: 10, logEvery: 5 }),
+      });
       const dataset = await loadDataset(data, '.');
       const fit = await fitMethod(spec.method, dataset, spec, quietHooks());
       const dir = await tempDir();
       await saveRepresentation(dir, fit.serialised);
       const reloaded = await loadRepresentation(dir);
       const e = dataset.test[0]!;
-      expect(Array.from(reloaded.encode(e.obs, e.steps))).toEqual(Array.from(fit.representation.encode(e.obs, e.steps)));
+      expect(Array.from(reloaded.encode(e.obs, e.steps))).toEqual(
+        Array.from(fit.representation.encode(e.obs, e.steps)),
+      );
       expect(reloaded.critic?.A.data).toEqual(fit.representation.critic?.A.data);
     });
   }
@@ -51,12 +61,26 @@ describe('representation files', () => {
 
 describe('train job', () => {
   it('saves representation, curves and spec, and reports training metrics', async () => {
-    const spec = trainSpec({ data: smallData({ episodes: 12, steps: 20 }), train: trainConfig({ steps: 20, logEvery: 10 }) });
+    const spec = trainSpec({
+      data: smallData({ episodes: 12, steps: 20 }),
+      train: trainConfig({ steps: 20, logEvery: 10 }),
+    });
     const dir = await tempDir();
     const lines: string[] = [];
-    const outcome = await trainJob(spec, { artifactsDir: dir, artifactsOf: () => dir, threads: 1, log: (l) => lines.push(l), signal: new AbortController().signal });
+    const outcome = await trainJob(spec, {
+      artifactsDir: dir,
+      artifactsOf: () => dir,
+      threads: 1,
+      log: (l) => lines.push(l),
+      signal: new AbortController().signal,
+    });
     expect(outcome.status).toBe('done');
-    expect(outcome.metrics.map((m) => m.metric)).toEqual(['final_train_loss', 'final_val_loss', 'final_train_accuracy', 'final_val_accuracy']);
+    expect(outcome.metrics.map((m) => m.metric)).toEqual([
+      'final_train_loss',
+      'final_val_loss',
+      'final_train_accuracy',
+      'final_val_accuracy',
+    ]);
     const curves = JSON.parse(await readFile(join(dir, 'curves.json'), 'utf8')) as CurvePoint[];
     expect(curves.map((c) => c.step)).toEqual([10, 20]);
     expect(outcome.metrics[0]!.value).toBe(curves[1]!.trainLoss);
@@ -66,9 +90,18 @@ describe('train job', () => {
   });
 
   it('returns diverged (not a crash) for a run forced to blow up', async () => {
-    const spec = trainSpec({ data: smallData({ episodes: 12, steps: 20 }), train: trainConfig({ steps: 100, lr: 1e30, clip: 0, logEvery: 10 }) });
+    const spec = trainSpec({
+      data: smallData({ episodes: 12, steps: 20 }),
+      train: trainConfig({ steps: 100, lr: 1e30, clip: 0, logEvery: 10 }),
+    });
     const dir = await tempDir();
-    const outcome = await trainJob(spec, { artifactsDir: dir, artifactsOf: () => dir, threads: 1, log: () => undefined, signal: new AbortController().signal });
+    const outcome = await trainJob(spec, {
+      artifactsDir: dir,
+      artifactsOf: () => dir,
+      threads: 1,
+      log: () => undefined,
+      signal: new AbortController().signal,
+    });
     expect(outcome.status).toBe('diverged');
     if (outcome.status === 'diverged') expect(outcome.reason).toMatch(/^step \d+: /);
   });

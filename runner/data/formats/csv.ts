@@ -34,17 +34,7 @@ export function parseNumericCsv(
   options: CsvOptions = {},
 ): NumericTable {
   const lines = text.replace(/^\uFEFF/, '').split(/\r?\n/);
-  const headerIndex = lines.findIndex((l) => l.trim().length > 0);
-  if (headerIndex < 0) {
-    throw new DataError({
-      code: 'empty-file',
-      file: fileName,
-      row: 1,
-      message: 'expected a header line and at least one row, got an empty file',
-      hint: 'write a header such as "episode,step,x1,x2" followed by one row per step',
-    });
-  }
-  const header = splitCsvLine(lines[headerIndex]!, fileName, headerIndex + 1).map((h) => h.trim());
+  const { header, bodyLines } = locateRows(lines, fileName);
   const textSet = new Set(options.textColumns ?? []);
   const ignoreSet = new Set(options.ignoreColumns ?? []);
   const numericIdx: number[] = [];
@@ -53,19 +43,6 @@ export function parseNumericCsv(
     if (textSet.has(name)) textIdx.push(i);
     else if (!ignoreSet.has(name)) numericIdx.push(i);
   });
-  const bodyLines: number[] = [];
-  for (let i = headerIndex + 1; i < lines.length; i++) {
-    if (lines[i]!.trim().length > 0) bodyLines.push(i);
-  }
-  if (bodyLines.length === 0) {
-    throw new DataError({
-      code: 'empty-file',
-      file: fileName,
-      row: headerIndex + 1,
-      message: 'expected at least one data row after the header, got none',
-      hint: 'add one row per step below the header',
-    });
-  }
   const width = numericIdx.length;
   const data = new Float64Array(bodyLines.length * width);
   const lineNumbers = new Int32Array(bodyLines.length);
@@ -89,13 +66,37 @@ export function parseNumericCsv(
     });
     for (const c of textIdx) textOut[header[c]!]!.push(cells[c]!.trim());
   });
-  return {
-    columns: numericIdx.map((i) => header[i]!),
-    rows: bodyLines.length,
-    data,
-    lines: lineNumbers,
-    text: textOut,
-  };
+  const columns = numericIdx.map((i) => header[i]!);
+  return { columns, rows: bodyLines.length, data, lines: lineNumbers, text: textOut };
+}
+
+/** The header cells and the 0-based indices of the non-blank lines after it. */
+function locateRows(lines: string[], fileName: string): { header: string[]; bodyLines: number[] } {
+  const headerIndex = lines.findIndex((l) => l.trim().length > 0);
+  if (headerIndex < 0) {
+    throw new DataError({
+      code: 'empty-file',
+      file: fileName,
+      row: 1,
+      message: 'expected a header line and at least one row, got an empty file',
+      hint: 'write a header such as "episode,step,x1,x2" followed by one row per step',
+    });
+  }
+  const header = splitCsvLine(lines[headerIndex]!, fileName, headerIndex + 1).map((h) => h.trim());
+  const bodyLines: number[] = [];
+  for (let i = headerIndex + 1; i < lines.length; i++) {
+    if (lines[i]!.trim().length > 0) bodyLines.push(i);
+  }
+  if (bodyLines.length === 0) {
+    throw new DataError({
+      code: 'empty-file',
+      file: fileName,
+      row: headerIndex + 1,
+      message: 'expected at least one data row after the header, got none',
+      hint: 'add one row per step below the header',
+    });
+  }
+  return { header, bodyLines };
 }
 
 /** Parses one numeric cell; NaN / Infinity / text are errors naming row and column. */

@@ -30,50 +30,55 @@ export function readJsonlEpisodes(text: string, file: string, cfg: DataFileConfi
   }
   const skip = new Set([cfg.episodeColumn, cfg.stepColumn, ...cfg.state]);
   const features = cfg.features ?? Object.keys(first.value).filter((k) => !skip.has(k));
-  let obsDim = -1;
-  let stateDim = -1;
-  const rows: StepRow[] = records.map(({ value, row }) => {
-    const keys = Object.keys(value);
-    const field = (k: string, role: string): unknown => {
-      if (!(k in value)) throw missingColumn(file, row, k, role, keys);
-      return value[k];
-    };
-    const key = field(cfg.episodeColumn, 'episode');
-    const keyText = typeof key === 'string' || typeof key === 'number' ? String(key) : undefined;
-    const step = numbersOf(field(cfg.stepColumn, 'step'), cfg.stepColumn, file, row)[0];
-    if (step === undefined || !Number.isInteger(step) || keyText === undefined) {
-      throw new DataError({
-        code: 'non-numeric',
-        file,
-        row,
-        index: `key '${step === undefined || !Number.isInteger(step) ? cfg.stepColumn : cfg.episodeColumn}'`,
-        message: `expected an integer step and a string or number episode key, got ${JSON.stringify([key, value[cfg.stepColumn]])}`,
-        hint: 'write e.g. "episode": "a", "step": 3',
-      });
-    }
-    const feats = features.flatMap((k) => numbersOf(field(k, 'feature'), k, file, row));
-    const state = cfg.state.flatMap((k) => numbersOf(field(k, 'state'), k, file, row));
-    if (obsDim < 0) [obsDim, stateDim] = [feats.length, state.length];
-    if (feats.length !== obsDim || state.length !== stateDim) {
+  const rows = records.map(({ value, row }) => recordToRow(value, row, features, cfg, file));
+  const [obsDim, stateDim] = [rows[0]!.features.length, rows[0]!.state?.length ?? 0];
+  for (const r of rows) {
+    if (r.features.length !== obsDim || (r.state?.length ?? 0) !== stateDim) {
       throw new DataError({
         code: 'ragged-features',
         file,
-        row,
-        message: `expected ${obsDim} feature and ${stateDim} state values as on line ${first.row}, got ${feats.length} and ${state.length}`,
+        row: r.row,
+        message: `expected ${obsDim} feature and ${stateDim} state values as on line ${first.row}, got ${r.features.length} and ${r.state?.length ?? 0}`,
         hint: 'every record needs arrays of the same length for each feature key',
       });
     }
-    const out: StepRow = {
-      key: keyText,
-      step,
-      row,
-      features: Float64Array.from(feats),
-    };
-    if (state.length > 0) out.state = Float64Array.from(state);
-    return out;
-  });
+  }
   const grouped = groupStepRows(rows, obsDim, stateDim, file);
   return { ...grouped, obsDim, stateDim, featureNames: features };
+}
+
+/** One record as a step row; throws on missing keys and non-numbers. */
+function recordToRow(
+  value: Record_,
+  row: number,
+  features: string[],
+  cfg: DataFileConfig,
+  file: string,
+): StepRow {
+  const keys = Object.keys(value);
+  const field = (k: string, role: string): unknown => {
+    if (!(k in value)) throw missingColumn(file, row, k, role, keys);
+    return value[k];
+  };
+  const key = field(cfg.episodeColumn, 'episode');
+  const keyText = typeof key === 'string' || typeof key === 'number' ? String(key) : undefined;
+  const step = numbersOf(field(cfg.stepColumn, 'step'), cfg.stepColumn, file, row)[0];
+  if (step === undefined || !Number.isInteger(step) || keyText === undefined) {
+    const bad = step === undefined || !Number.isInteger(step) ? cfg.stepColumn : cfg.episodeColumn;
+    throw new DataError({
+      code: 'non-numeric',
+      file,
+      row,
+      index: `key '${bad}'`,
+      message: `expected an integer step and a string or number episode key, got ${JSON.stringify([key, value[cfg.stepColumn]])}`,
+      hint: 'write e.g. "episode": "a", "step": 3',
+    });
+  }
+  const feats = features.flatMap((k) => numbersOf(field(k, 'feature'), k, file, row));
+  const state = cfg.state.flatMap((k) => numbersOf(field(k, 'state'), k, file, row));
+  const out: StepRow = { key: keyText, step, row, features: Float64Array.from(feats) };
+  if (state.length > 0) out.state = Float64Array.from(state);
+  return out;
 }
 
 function parseLine(line: string, file: string, row: number): Record_ {

@@ -32,8 +32,14 @@ export function runAssumptionsSuite(context: EvalContext): SuiteOutput {
   const metrics: MetricRow[] = [];
   const details: Record<string, unknown> = { n, dim, scale };
   if (n > dim + 1) {
-    metrics.push(...multivariateRows(X, n, dim, details));
     metrics.push(...ksRows(X, n, dim, scale, details));
+    try {
+      metrics.push(...multivariateRows(X, n, dim, details));
+    } catch (error) {
+      // A degenerate representation (a constant or collinear dimension) has a singular
+      // covariance: the multivariate tests do not apply, and the eigenvalues below say why.
+      details.skipped = `multivariate normality tests: ${(error as Error).message}`;
+    }
     metrics.push(...covarianceRows(X, n, dim, scale, details));
   } else {
     details.skipped = `subsample of ${n} rows is too small for ${dim} dimensions`;

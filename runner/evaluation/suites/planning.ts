@@ -26,7 +26,8 @@ import { taskRng } from '../tasks.ts';
 /** Cells of shortest path per waypoint. */
 export const WAYPOINT_SPACING = 4;
 
-type Arm = {
+/** One planning arm: its name, the transition source (bridges only) and its targets. */
+export type Arm = {
   name: string;
   source: string;
   targets: (task: PlanningTask, T: number) => Float64Array;
@@ -94,7 +95,7 @@ export function runPlanningSuite(context: EvalContext): SuiteOutput {
 }
 
 /** Encodings of every free cell's noiseless observation. */
-function encodeCells(context: EvalContext, maze: MazeEnvironment): CellCodes {
+export function encodeCells(context: EvalContext, maze: MazeEnvironment): CellCodes {
   const free = freeCellsOf(maze);
   const obsDim = context.dataset.obsDim;
   const obs = new Float32Array(free.length * obsDim);
@@ -103,7 +104,8 @@ function encodeCells(context: EvalContext, maze: MazeEnvironment): CellCodes {
   return { dim: context.dim, row: new Map(free.map((c, i) => [c, i])), codes };
 }
 
-function planningArms(context: EvalContext, maze: MazeEnvironment, cells: CellCodes): Arm[] {
+/** The arms, in report order: straight, waypoints per source, interpolated, oracle. */
+export function planningArms(context: EvalContext, maze: MazeEnvironment, cells: CellCodes): Arm[] {
   const { dim } = context;
   const codeOf = (cell: number): Float64Array => {
     const r = cells.row.get(cell)!;

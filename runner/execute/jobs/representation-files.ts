@@ -103,8 +103,17 @@ export async function readSerialised(dir: string): Promise<SerialisedRepresentat
     new Uint8Array(data.buffer).set(bytes);
     arrays[name] = { shape: entry.shape, data };
   }
-  const { format: _format, arrays: _entries, ...rest } = header;
-  return { ...rest, arrays };
+  const { method, label, dim, obsDim, model, meta, critic } = header;
+  return {
+    method,
+    label,
+    dim,
+    obsDim,
+    model,
+    meta,
+    arrays,
+    ...(critic === undefined ? {} : { critic }),
+  };
 }
 
 /** Loads a representation saved by saveRepresentation. */

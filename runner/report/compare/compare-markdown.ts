@@ -27,7 +27,7 @@ function rowsTable(rows: readonly ComparisonRow[]): string[] {
       `${r.level}${r.unit === 'jump' ? ' jumps' : ''}`,
     ].map(escapeMarkdownCell);
     const test = r.test === 'none' ? 'untested (one seed)' : r.test;
-    const p = r.p === null ? '–' : formatValue(r.p);
+    const p = r.p === null ? '–' : r.p < 0.001 ? '< 0.001' : r.p.toFixed(3);
     cells.push(
       `${formatValue(r.base.mean)} (n=${r.base.n})`,
       `${formatValue(r.candidate.mean)} (n=${r.candidate.n})`,

@@ -39,10 +39,19 @@ function sampleRows(all: Float32Array, obsDim: number, size: number, rng: Rng): 
 }
 
 /** One Adam step on the reconstruction loss; returns [loss, gradNorm] before the update. */
-function stepReconstruction(encoder: TfEncoder, decoder: TfEncoder, optimizer: tf.Optimizer, batch: tf.Tensor2D, clip: number): [number, number] {
+function stepReconstruction(
+  encoder: TfEncoder,
+  decoder: TfEncoder,
+  optimizer: tf.Optimizer,
+  batch: tf.Tensor2D,
+  clip: number,
+): [number, number] {
   return tf.tidy(() => {
     const vars = [...encoder.variables, ...decoder.variables];
-    const { value, grads } = tf.variableGrads(() => tf.mean(tf.square(tf.sub(decoder.apply(encoder.apply(batch)), batch))), vars);
+    const { value, grads } = tf.variableGrads(
+      () => tf.mean(tf.square(tf.sub(decoder.apply(encoder.apply(batch)), batch))),
+      vars,
+    );
     const names = Object.keys(grads);
     const norm = tf.sqrt(tf.addN(names.map((n) => tf.sum(tf.square(grads[n]!)))));
     const [loss, gradNorm] = tf.stack([value, norm]).dataSync() as unknown as [number, number];
@@ -57,7 +66,13 @@ function stepReconstruction(encoder: TfEncoder, decoder: TfEncoder, optimizer: t
 }
 
 /** Per-dimension mean and 1/σ·√c of the codes of the training observations. */
-function codeScaling(encoder: TfEncoder, all: Float32Array, obsDim: number, dim: number, c: number): { mean: Float32Array; scale: Float32Array } {
+function codeScaling(
+  encoder: TfEncoder,
+  all: Float32Array,
+  obsDim: number,
+  dim: number,
+  c: number,
+): { mean: Float32Array; scale: Float32Array } {
   const n = all.length / obsDim;
   const z = tf.tidy(() => encoder.apply(tf.tensor2d(all, [n, obsDim])).dataSync());
   const mean = new Float32Array(dim);
@@ -80,9 +95,28 @@ export const fitAutoencoder: MethodFit = async (context) => {
   const backend = await selectBackend();
   const options = engineOptions(context);
   const rng = createRng(spec.seed);
-  const encoder = await buildEncoder({ config: spec.encoder, obsDim: dataset.obsDim, dim: spec.dim, seed: spec.seed, baseDir: spec.baseDir, ...(dataset.imageShape === undefined ? {} : { imageShape: dataset.imageShape }) }, rng.fork('init'));
-  const decoderConfig: EncoderConfig = { ...spec.encoder, kind: 'mlp', layerNorm: false, widths: spec.encoder.kind === 'mlp' ? [...spec.encoder.widths].reverse() : [] };
-  const decoder = buildDenseEncoder({ config: decoderConfig, obsDim: spec.dim, dim: dataset.obsDim, seed: spec.seed }, rng.fork('decoder'), false);
+  const encoder = await buildEncoder(
+    {
+      config: spec.encoder,
+      obsDim: dataset.obsDim,
+      dim: spec.dim,
+      seed: spec.seed,
+      baseDir: spec.baseDir,
+      ...(dataset.imageShape === undefined ? {} : { imageShape: dataset.imageShape }),
+    },
+    rng.fork('init'),
+  );
+  const decoderConfig: EncoderConfig = {
+    ...spec.encoder,
+    kind: 'mlp',
+    layerNorm: false,
+    widths: spec.encoder.kind === 'mlp' ? [...spec.encoder.widths].reverse() : [],
+  };
+  const decoder = buildDenseEncoder(
+    { config: decoderConfig, obsDim: spec.dim, dim: dataset.obsDim, seed: spec.seed },
+    rng.fork('decoder'),
+    false,
+  );
   const optimizer = tf.train.adam(spec.train.lr, 0.9, 0.999, 1e-7);
   const all = stack(dataset.train);
   const batchRng = rng.fork('batches');
@@ -91,8 +125,12 @@ export const fitAutoencoder: MethodFit = async (context) => {
   let reason: string | undefined;
   try {
     for (let step = 1; step <= spec.train.steps; step++) {
-      if (hooks.signal.aborted) throw new TrainingError('training-aborted', `stopped at step ${step}`);
-      const batch = tf.tensor2d(sampleRows(all, dataset.obsDim, spec.train.batch, batchRng), [spec.train.batch, dataset.obsDim]);
+      if (hooks.signal.aborted)
+        throw new TrainingError('training-aborted', `stopped at step ${step}`);
+      const batch = tf.tensor2d(sampleRows(all, dataset.obsDim, spec.train.batch, batchRng), [
+        spec.train.batch,
+        dataset.obsDim,
+      ]);
       const [loss, norm] = stepReconstruction(encoder, decoder, optimizer, batch, spec.train.clip);
       batch.dispose();
       if (!Number.isFinite(loss) || !Number.isFinite(norm)) {
@@ -107,14 +145,25 @@ export const fitAutoencoder: MethodFit = async (context) => {
       }
     }
     const { mean, scale } = codeScaling(encoder, all, dataset.obsDim, spec.dim, spec.train.scale);
-    const arrays: SerialisedRepresentation['arrays'] = { outMean: { shape: [spec.dim], data: mean }, outScale: { shape: [spec.dim], data: scale } };
-    encoder.variables.forEach((v, i) => (arrays[`p${i}`] = { shape: [...v.shape], data: Float32Array.from(v.dataSync()) }));
+    const arrays: SerialisedRepresentation['arrays'] = {
+      outMean: { shape: [spec.dim], data: mean },
+      outScale: { shape: [spec.dim], data: scale },
+    };
+    encoder.variables.forEach(
+      (v, i) => (arrays[`p${i}`] = { shape: [...v.shape], data: Float32Array.from(v.dataSync()) }),
+    );
     const serialised: SerialisedRepresentation = {
       method: method.name,
       label: method.label,
       dim: spec.dim,
       obsDim: dataset.obsDim,
-      model: { kind: 'encoder', encoder: spec.encoder, seed: spec.seed, baseDir: spec.baseDir, ...(options.imageShape === undefined ? {} : { imageShape: options.imageShape }) },
+      model: {
+        kind: 'encoder',
+        encoder: spec.encoder,
+        seed: spec.seed,
+        baseDir: spec.baseDir,
+        ...(options.imageShape === undefined ? {} : { imageShape: options.imageShape }),
+      },
       arrays,
       meta: { train: spec.train },
     };
@@ -123,7 +172,13 @@ export const fitAutoencoder: MethodFit = async (context) => {
       ...(reason === undefined ? {} : { reason }),
       representation: await restoreRepresentation(serialised),
       curves: [],
-      info: { tfBackend: backend.name, engine: 'tfjs', kernel: backend.name, threads: backend.threads, finalReconstruction: last },
+      info: {
+        tfBackend: backend.name,
+        engine: 'tfjs',
+        kernel: backend.name,
+        threads: backend.threads,
+        finalReconstruction: last,
+      },
       serialised,
     };
   } finally {

@@ -5,7 +5,12 @@
 import { selectBackend } from '../../encoders/backend.ts';
 import { initDenseParams } from '../../encoders/dense-layout.ts';
 import { createRng } from '../../numeric/random.ts';
-import { createEngine, nativeEncoderKinds, type EngineOptions, type StepEngine } from '../engine.ts';
+import {
+  createEngine,
+  nativeEncoderKinds,
+  type EngineOptions,
+  type StepEngine,
+} from '../engine.ts';
 import { loadEngines } from '../engines.ts';
 import type { FitResult, MethodContext, MethodFit } from '../method.ts';
 import { PairSampler } from '../pair-sampler.ts';
@@ -31,7 +36,9 @@ export function engineOptions(context: MethodContext): EngineOptions {
 async function openEngine(context: MethodContext, options: EngineOptions): Promise<StepEngine> {
   await loadEngines();
   try {
-    return await createEngine(context.spec.train.engine, options, context.hooks.log);
+    return await createEngine(context.spec.train.engine, options, (line) =>
+      context.hooks.log(line),
+    );
   } catch (error) {
     if (error instanceof TrainingError) throw error;
     throw new TrainingError('engine-unavailable', (error as Error).message, 'train.engine');
@@ -39,7 +46,11 @@ async function openEngine(context: MethodContext, options: EngineOptions): Promi
 }
 
 /** The serialised form of trained parameters (encoder variables, then A when learned). */
-export function serialiseTrained(context: MethodContext, options: EngineOptions, params: Float32Array[]): SerialisedRepresentation {
+export function serialiseTrained(
+  context: MethodContext,
+  options: EngineOptions,
+  params: Float32Array[],
+): SerialisedRepresentation {
   const { spec, method } = context;
   const learnedA = spec.train.critic !== 'distance-identity';
   const encoderParams = learnedA ? params.slice(0, -1) : params;
@@ -72,12 +83,29 @@ export const fitContrastive: MethodFit = async (context): Promise<FitResult> => 
   const engine = await openEngine(context, options);
   try {
     if (nativeEncoderKinds.includes(spec.encoder.kind)) {
-      engine.init(initDenseParams(spec.encoder, dataset.obsDim, spec.dim, spec.train.critic, createRng(spec.seed).fork('init')));
+      engine.init(
+        initDenseParams(
+          spec.encoder,
+          dataset.obsDim,
+          spec.dim,
+          spec.train.critic,
+          createRng(spec.seed).fork('init'),
+        ),
+      );
     }
     const train = new PairSampler(dataset.train, spec.train.discount, 'data (training episodes)');
-    const val = dataset.val.some((e) => e.steps > 1) ? new PairSampler(dataset.val, spec.train.discount) : train;
-    if (val === train) hooks.log('no validation episode with 2+ steps: validation curve uses training episodes');
-    const loop = await runTrainingLoop(engine, spec.train, { train, val }, createRng(spec.seed).fork('training'), hooks);
+    const val = dataset.val.some((e) => e.steps > 1)
+      ? new PairSampler(dataset.val, spec.train.discount)
+      : train;
+    if (val === train)
+      hooks.log('no validation episode with 2+ steps: validation curve uses training episodes');
+    const loop = await runTrainingLoop(
+      engine,
+      spec.train,
+      { train, val },
+      createRng(spec.seed).fork('training'),
+      hooks,
+    );
     const serialised = serialiseTrained(context, options, engine.getParams());
     return {
       status: loop.status,

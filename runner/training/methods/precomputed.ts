@@ -19,21 +19,36 @@ import { restoreRepresentation, type SerialisedRepresentation } from '../seriali
 import { TrainingError } from '../training-error.ts';
 
 /** Parses the file into [rows, dim]. */
-function parseEmbeddings(bytes: Uint8Array, file: string): { rows: number; dim: number; data: Float64Array | Float32Array } {
+function parseEmbeddings(
+  bytes: Uint8Array,
+  file: string,
+): { rows: number; dim: number; data: Float64Array | Float32Array } {
   if (file.toLowerCase().endsWith('.npy')) {
     const a = parseNpy(bytes, file);
     const dim = a.shape[a.shape.length - 1] ?? 0;
     if (a.shape.length < 2 || a.shape.length > 3 || dim === 0) {
-      throw new TrainingError('embeddings-shape', `expected a 2-D [observations, d] or 3-D [episodes, steps, d] array, got shape [${a.shape.join(', ')}]`, file);
+      throw new TrainingError(
+        'embeddings-shape',
+        `expected a 2-D [observations, d] or 3-D [episodes, steps, d] array, got shape [${a.shape.join(', ')}]`,
+        file,
+      );
     }
     return { rows: a.data.length / dim, dim, data: a.data };
   }
-  const table = parseNumericCsv(new TextDecoder().decode(bytes), file, { ignoreColumns: ['episode', 'step'] });
+  const table = parseNumericCsv(new TextDecoder().decode(bytes), file, {
+    ignoreColumns: ['episode', 'step'],
+  });
   return { rows: table.rows, dim: table.columns.length, data: table.data };
 }
 
 /** Scales columns to variance c with statistics of the first `trainRows` rows. */
-function scaleToTarget(data: ArrayLike<number>, rows: number, dim: number, trainRows: number, c: number): Float32Array {
+function scaleToTarget(
+  data: ArrayLike<number>,
+  rows: number,
+  dim: number,
+  trainRows: number,
+  c: number,
+): Float32Array {
   const out = new Float32Array(rows * dim);
   for (let j = 0; j < dim; j++) {
     let s = 0;
@@ -54,23 +69,39 @@ function allEpisodes(dataset: Dataset): Episode[] {
 /** The 'precomputed' method. */
 export const fitPrecomputed: MethodFit = async ({ method, dataset, spec, hooks }) => {
   if (method.path === undefined || method.path === '') {
-    throw new TrainingError('embeddings-missing', "expected method.path naming a .npy or .csv file of embeddings, got none; write { name: precomputed, path: './embeddings.npy' }", `methods[${method.label}]`);
+    throw new TrainingError(
+      'embeddings-missing',
+      "expected method.path naming a .npy or .csv file of embeddings, got none; write { name: precomputed, path: './embeddings.npy' }",
+      `methods[${method.label}]`,
+    );
   }
   if (hooks.readFile === undefined) {
-    throw new TrainingError('embeddings-missing', 'expected the caller to provide hooks.readFile for precomputed embeddings, got none', method.path);
+    throw new TrainingError(
+      'embeddings-missing',
+      'expected the caller to provide hooks.readFile for precomputed embeddings, got none',
+      method.path,
+    );
   }
   const file = path.resolve(spec.baseDir, method.path);
   let bytes: Uint8Array;
   try {
     bytes = await hooks.readFile(file);
   } catch (error) {
-    throw new TrainingError('embeddings-missing', `expected a readable file, got: ${(error as Error).message}; paths are relative to the experiment file`, file);
+    throw new TrainingError(
+      'embeddings-missing',
+      `expected a readable file, got: ${(error as Error).message}; paths are relative to the experiment file`,
+      file,
+    );
   }
   const { rows, dim, data } = parseEmbeddings(bytes, file);
   const episodes = allEpisodes(dataset);
   const expected = episodes.reduce((a, e) => a + e.steps, 0);
   if (rows !== expected) {
-    throw new TrainingError('embeddings-shape', `expected ${expected} rows (one per observation: ${dataset.train.length} training, ${dataset.val.length} validation, ${dataset.test.length} test episodes in that order), got ${rows}`, file);
+    throw new TrainingError(
+      'embeddings-shape',
+      `expected ${expected} rows (one per observation: ${dataset.train.length} training, ${dataset.val.length} validation, ${dataset.test.length} test episodes in that order), got ${rows}`,
+      file,
+    );
   }
   const trainRows = dataset.train.reduce((a, e) => a + e.steps, 0);
   const keys = new Float32Array(expected * dataset.obsDim);
@@ -87,7 +118,10 @@ export const fitPrecomputed: MethodFit = async ({ method, dataset, spec, hooks }
     model: { kind: 'lookup' },
     arrays: {
       keys: { shape: [expected, dataset.obsDim], data: keys },
-      values: { shape: [expected, dim], data: scaleToTarget(data, rows, dim, trainRows, spec.train.scale) },
+      values: {
+        shape: [expected, dim],
+        data: scaleToTarget(data, rows, dim, trainRows, spec.train.scale),
+      },
     },
     meta: { source: method.path },
   };

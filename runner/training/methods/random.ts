@@ -14,7 +14,10 @@ export const fitRandom: MethodFit = (context) => {
   const rng = createRng(spec.seed).fork('random-projection');
   const w = new Matrix(dataset.obsDim, spec.dim);
   const sd = 1 / Math.sqrt(spec.dim);
-  for (let i = 0; i < w.rows; i++) for (let j = 0; j < w.columns; j++) w.set(i, j, rng.normal() * sd);
+  for (let i = 0; i < w.rows; i++)
+    for (let j = 0; j < w.columns; j++) w.set(i, j, rng.normal() * sd);
   const { x, mean } = stackObservations(dataset.train);
-  return Promise.resolve(affineResult(context, mean, scaleColumns(x, mean, w, spec.train.scale), {}));
+  return Promise.resolve(
+    affineResult(context, mean, scaleColumns(x, mean, w, spec.train.scale), {}),
+  );
 };

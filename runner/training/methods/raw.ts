@@ -13,9 +13,17 @@ export const fitRaw: MethodFit = (context) => {
   const { dataset, spec } = context;
   if (dataset.obsDim > spec.dim) {
     const { x, mean, w } = principalDirections(dataset.train, spec.dim);
-    return Promise.resolve(affineResult(context, mean, scaleColumns(x, mean, w, spec.train.scale), { projection: 'principal' }));
+    return Promise.resolve(
+      affineResult(context, mean, scaleColumns(x, mean, w, spec.train.scale), {
+        projection: 'principal',
+      }),
+    );
   }
   const { x, mean } = stackObservations(dataset.train);
   const w = Matrix.eye(dataset.obsDim);
-  return Promise.resolve(affineResult(context, mean, scaleColumns(x, mean, w, spec.train.scale), { projection: 'identity' }));
+  return Promise.resolve(
+    affineResult(context, mean, scaleColumns(x, mean, w, spec.train.scale), {
+      projection: 'identity',
+    }),
+  );
 };
