@@ -15,7 +15,7 @@ import * as path from 'node:path';
 import * as tf from '@tensorflow/tfjs';
 import type { DataConfig, TrainConfig } from '../runner/config/types.ts';
 import { loadDataset } from '../runner/data/load-dataset.ts';
-import { listBackends, selectBackend, type BackendName } from '../runner/encoders/backend.ts';
+import { listBackends, selectBackend } from '../runner/encoders/backend.ts';
 import { initDenseParams } from '../runner/encoders/dense-layout.ts';
 import { setFastMatMul } from '../runner/encoders/fast-matmul.ts';
 import { createRng } from '../runner/numeric/random.ts';

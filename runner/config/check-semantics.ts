@@ -104,12 +104,3 @@ export function checkMethodRules(methods: unknown[]): SemanticIssue[] {
   });
   return issues;
 }
-
-/** Every cross-key rule of a config whose individual keys already passed the schema. */
-export function checkConfigRules(config: Record<string, unknown>): SemanticIssue[] {
-  return [
-    ...checkDataRules(config.data as Record<string, unknown>, ['data']),
-    ...checkEncoderRules(config.encoder as Record<string, unknown>, ['encoder']),
-    ...checkMethodRules(config.methods as unknown[]),
-  ];
-}

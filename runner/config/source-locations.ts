@@ -57,11 +57,6 @@ export class LocationMap {
       if (existing === key || existing.startsWith(`${key}\u0000`)) this.entries.delete(existing);
     }
   }
-
-  /** True when `path` itself (not only an ancestor) has a recorded location. */
-  has(path: ConfigPath): boolean {
-    return this.entries.has(keyOf(path));
-  }
 }
 
 function positionAt(file: string, counter: LineCounter, offset: number): SourcePos {

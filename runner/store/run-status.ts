@@ -37,11 +37,24 @@ export interface RunStatus {
   problems: StoreProblem[];
 }
 
-function stateOf(dir: string, id: string, result: JobResult | undefined): JobState {
+/** What a scheduler says about a job without a kept result (see execute/slurm/scheduler-view.ts). */
+export interface ExternalView {
+  phase: 'queued' | 'running' | 'ended';
+  /** The scheduler's word for how it ended, e.g. "SLURM task 12_3 ended TIMEOUT". */
+  reason: string;
+}
+
+function stateOf(
+  dir: string,
+  id: string,
+  result: JobResult | undefined,
+  external: ExternalView | undefined,
+): JobState {
   if (result && result.status !== 'failed') return result.status;
   // A failed job is rerun by the next `run`; while a runner holds its lock it is running.
-  if (readLiveOwner(lockPathOf(dir, id))) return 'running';
-  return result ? 'failed' : 'pending';
+  if (readLiveOwner(lockPathOf(dir, id)) || external?.phase === 'running') return 'running';
+  if (result) return 'failed';
+  return external?.phase === 'ended' ? 'failed' : 'pending';
 }
 
 function estimate(costs: Partial<Record<JobKind, KindCost>>, running: number): number | null {
@@ -54,8 +67,14 @@ function estimate(costs: Partial<Record<JobKind, KindCost>>, running: number): n
   return work / Math.max(1, running);
 }
 
-/** Summarises the results directory `dir` (plan jobs; all results when there is no plan). */
-export async function readRunStatus(dir: string): Promise<RunStatus> {
+/**
+ * Summarises the results directory `dir` (plan jobs; all results when there is no plan).
+ * `external` adds a scheduler's view of jobs that have no kept result.
+ */
+export async function readRunStatus(
+  dir: string,
+  external: ReadonlyMap<string, ExternalView> = new Map(),
+): Promise<RunStatus> {
   const { plan, results, problems } = await readRun(dir);
   const byId = new Map(results.map((r) => [r.id, r]));
   const jobs = plan
@@ -72,7 +91,8 @@ export async function readRunStatus(dir: string): Promise<RunStatus> {
   const spent = new Map<JobKind, { seconds: number; count: number; remaining: number }>();
   for (const job of jobs) {
     const result = byId.get(job.id);
-    const state = stateOf(dir, job.id, result);
+    const seen = external.get(job.id);
+    const state = stateOf(dir, job.id, result, seen);
     counts[state] += 1;
     const cost = spent.get(job.kind) ?? { seconds: 0, count: 0, remaining: 0 };
     if (state === 'running' || state === 'pending') cost.remaining += 1;

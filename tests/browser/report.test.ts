@@ -112,11 +112,21 @@ describe.skipIf(!present && !required)('HTML report in headless Chromium', () =>
   });
 
   it('has table cells that match `midpath table --format json`', async () => {
-    const cells = await page!
-      .locator('td[data-metric]')
-      .evaluateAll((tds) =>
-        tds.map((td) => ({ ...(td as HTMLElement).dataset, text: td.textContent ?? '' })),
-      );
+    const cells = await page!.locator('td[data-metric]').evaluateAll((tds) =>
+      tds.map((td) => {
+        const d = (td as HTMLElement).dataset;
+        return {
+          setting: d.setting ?? '',
+          method: d.method ?? '',
+          metric: d.metric ?? '',
+          source: d.source ?? '',
+          level: d.level ?? '',
+          unit: d.unit ?? '',
+          mean: d.mean ?? '',
+          text: td.textContent ?? '',
+        };
+      }),
+    );
     expect(cells.length).toBeGreaterThan(50);
     const key = (r: {
       setting: string;
@@ -133,16 +143,7 @@ describe.skipIf(!present && !required)('HTML report in headless Chromium', () =>
       ]),
     );
     for (const cell of cells) {
-      const row = rows.get(
-        key({
-          setting: cell.setting ?? '',
-          method: cell.method ?? '',
-          metric: cell.metric ?? '',
-          source: cell.source ?? '',
-          level: cell.level ?? '',
-          unit: cell.unit ?? '',
-        }),
-      );
+      const row = rows.get(key(cell));
       expect(row, `cell ${cell.metric} ${cell.method} ${cell.level}`).toBeDefined();
       expect(Number(cell.mean)).toBe(row!.mean);
       const expected = formatMeanInterval(

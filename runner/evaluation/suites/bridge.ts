@@ -92,6 +92,7 @@ function bridgeRows(
   };
   let reciprocal = 0;
   let top1 = 0;
+  let top5 = 0;
   const probeTruth: Float64Array[] = [];
   for (let k = 0; k < T; k++) {
     const truth = gatherCodes(context.test, tasks, k + 1, dim);
@@ -105,6 +106,7 @@ function bridgeRows(
     for (const r of ranks) {
       reciprocal += 1 / r;
       if (r === 1) top1 += 1;
+      if (r <= 5) top5 += 1;
     }
     probeTruth.push(predicted);
   }
@@ -114,6 +116,7 @@ function bridgeRows(
     metricRow('bridge', 'bridge_nmse_midpoint', T, name, average(profile.midpoint), extra),
     metricRow('bridge', 'bridge_nmse_nearer', T, name, average(profile.nearer), extra),
     metricRow('bridge', 'bridge_top1', T, name, top1 / (count * T), extra),
+    metricRow('bridge', 'bridge_top5', T, name, top5 / (count * T), extra),
     metricRow('bridge', 'bridge_mrr', T, name, reciprocal / (count * T), extra),
   ];
   metrics.push(...stateRows(context, tasks, probeTruth, T, name, extra));

@@ -143,17 +143,7 @@ export function planningArms(context: EvalContext, maze: MazeEnvironment, cells:
   arms.push({
     name: 'interpolated',
     source: '',
-    targets: (task, T) => {
-      const a = maze.observe(task.start);
-      const b = maze.observe(task.goal);
-      const obs = new Float32Array(T * a.length);
-      for (let k = 1; k <= T; k++) {
-        const w = k / (T + 1);
-        for (let j = 0; j < a.length; j++)
-          obs[(k - 1) * a.length + j] = (1 - w) * a[j]! + w * b[j]!;
-      }
-      return withGoal([context.representation.encode(obs, T)], task.goal);
-    },
+    targets: (task, T) => withGoal([interpolatedCodes(context, maze, task, T)], task.goal),
   });
   arms.push({
     name: 'oracle',
@@ -167,4 +157,21 @@ export function planningArms(context: EvalContext, maze: MazeEnvironment, cells:
     },
   });
   return arms;
+}
+
+/** Encodings of T observations interpolated linearly between start and goal: [T, dim]. */
+function interpolatedCodes(
+  context: EvalContext,
+  maze: MazeEnvironment,
+  task: PlanningTask,
+  T: number,
+): Float32Array {
+  const a = maze.observe(task.start);
+  const b = maze.observe(task.goal);
+  const obs = new Float32Array(T * a.length); // [T, obsDim]
+  for (let k = 1; k <= T; k++) {
+    const w = k / (T + 1);
+    for (let j = 0; j < a.length; j++) obs[(k - 1) * a.length + j] = (1 - w) * a[j]! + w * b[j]!;
+  }
+  return context.representation.encode(obs, T);
 }

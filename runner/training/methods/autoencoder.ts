@@ -12,10 +12,9 @@ import { buildEncoder } from '../../encoders/index.ts';
 import { buildDenseEncoder } from '../../encoders/mlp.ts';
 import type { Episode } from '../../data/episode.ts';
 import { createRng, type Rng } from '../../numeric/random.ts';
-import type { MethodFit } from '../method.ts';
+import type { MethodContext, MethodFit } from '../method.ts';
 import { restoreRepresentation, type SerialisedRepresentation } from '../serialised.ts';
 import { TrainingError } from '../training-error.ts';
-import { engineOptions } from './contrastive.ts';
 
 function stack(episodes: Episode[]): Float32Array {
   const parts = episodes.map((e) => e.obs);
@@ -89,12 +88,13 @@ function codeScaling(
   return { mean, scale };
 }
 
-/** The 'autoencoder' method. */
-export const fitAutoencoder: MethodFit = async (context) => {
-  const { dataset, spec, hooks, method } = context;
-  const backend = await selectBackend();
-  const options = engineOptions(context);
-  const rng = createRng(spec.seed);
+interface Networks {
+  encoder: TfEncoder;
+  decoder: TfEncoder;
+}
+
+async function buildNetworks(context: MethodContext, rng: Rng): Promise<Networks> {
+  const { dataset, spec } = context;
   const encoder = await buildEncoder(
     {
       config: spec.encoder,
@@ -115,28 +115,42 @@ export const fitAutoencoder: MethodFit = async (context) => {
   const decoder = buildDenseEncoder(
     { config: decoderConfig, obsDim: spec.dim, dim: dataset.obsDim, seed: spec.seed },
     rng.fork('decoder'),
-    false,
+    false, // the decoder's input is the code: its gradient must reach the encoder
   );
+  return { encoder, decoder };
+}
+
+/** The reconstruction training loop; stops as diverged on a NaN/∞ loss or gradient. */
+async function trainReconstruction(
+  context: MethodContext,
+  nets: Networks,
+  all: Float32Array,
+  rng: Rng,
+): Promise<{ last: number; reason?: string }> {
+  const { dataset, spec, hooks } = context;
   const optimizer = tf.train.adam(spec.train.lr, 0.9, 0.999, 1e-7);
-  const all = stack(dataset.train);
-  const batchRng = rng.fork('batches');
   let last = Number.NaN;
-  let status: 'done' | 'diverged' = 'done';
-  let reason: string | undefined;
   try {
     for (let step = 1; step <= spec.train.steps; step++) {
-      if (hooks.signal.aborted)
+      if (hooks.signal.aborted) {
         throw new TrainingError('training-aborted', `stopped at step ${step}`);
-      const batch = tf.tensor2d(sampleRows(all, dataset.obsDim, spec.train.batch, batchRng), [
-        spec.train.batch,
-        dataset.obsDim,
-      ]);
-      const [loss, norm] = stepReconstruction(encoder, decoder, optimizer, batch, spec.train.clip);
+      }
+      const rows = sampleRows(all, dataset.obsDim, spec.train.batch, rng);
+      const batch = tf.tensor2d(rows, [spec.train.batch, dataset.obsDim]);
+      const [loss, norm] = stepReconstruction(
+        nets.encoder,
+        nets.decoder,
+        optimizer,
+        batch,
+        spec.train.clip,
+      );
       batch.dispose();
       if (!Number.isFinite(loss) || !Number.isFinite(norm)) {
-        status = 'diverged';
-        reason = `step ${step}: the reconstruction ${Number.isFinite(loss) ? 'gradient norm' : 'loss'} is ${Number.isFinite(loss) ? norm : loss}; last finite loss ${last}`;
-        break;
+        const term = Number.isFinite(loss) ? `gradient norm is ${norm}` : `loss is ${loss}`;
+        return {
+          last,
+          reason: `step ${step}: the reconstruction ${term}; last finite loss ${last}`,
+        };
       }
       last = loss;
       if (step % spec.train.logEvery === 0) {
@@ -144,31 +158,54 @@ export const fitAutoencoder: MethodFit = async (context) => {
         await new Promise((resolve) => setImmediate(resolve));
       }
     }
-    const { mean, scale } = codeScaling(encoder, all, dataset.obsDim, spec.dim, spec.train.scale);
-    const arrays: SerialisedRepresentation['arrays'] = {
-      outMean: { shape: [spec.dim], data: mean },
-      outScale: { shape: [spec.dim], data: scale },
-    };
-    encoder.variables.forEach(
-      (v, i) => (arrays[`p${i}`] = { shape: [...v.shape], data: Float32Array.from(v.dataSync()) }),
-    );
-    const serialised: SerialisedRepresentation = {
-      method: method.name,
-      label: method.label,
-      dim: spec.dim,
-      obsDim: dataset.obsDim,
-      model: {
-        kind: 'encoder',
-        encoder: spec.encoder,
-        seed: spec.seed,
-        baseDir: spec.baseDir,
-        ...(options.imageShape === undefined ? {} : { imageShape: options.imageShape }),
-      },
-      arrays,
-      meta: { train: spec.train },
-    };
+    return { last };
+  } finally {
+    optimizer.dispose();
+  }
+}
+
+function serialiseAutoencoder(
+  context: MethodContext,
+  encoder: TfEncoder,
+  all: Float32Array,
+): SerialisedRepresentation {
+  const { dataset, spec, method } = context;
+  const { mean, scale } = codeScaling(encoder, all, dataset.obsDim, spec.dim, spec.train.scale);
+  const arrays: SerialisedRepresentation['arrays'] = {
+    outMean: { shape: [spec.dim], data: mean },
+    outScale: { shape: [spec.dim], data: scale },
+  };
+  encoder.variables.forEach((v, i) => {
+    arrays[`p${i}`] = { shape: [...v.shape], data: Float32Array.from(v.dataSync()) };
+  });
+  return {
+    method: method.name,
+    label: method.label,
+    dim: spec.dim,
+    obsDim: dataset.obsDim,
+    model: {
+      kind: 'encoder',
+      encoder: spec.encoder,
+      seed: spec.seed,
+      baseDir: spec.baseDir,
+      ...(dataset.imageShape === undefined ? {} : { imageShape: dataset.imageShape }),
+    },
+    arrays,
+    meta: { train: spec.train },
+  };
+}
+
+/** The 'autoencoder' method. */
+export const fitAutoencoder: MethodFit = async (context) => {
+  const backend = await selectBackend();
+  const rng = createRng(context.spec.seed);
+  const nets = await buildNetworks(context, rng);
+  const all = stack(context.dataset.train);
+  try {
+    const { last, reason } = await trainReconstruction(context, nets, all, rng.fork('batches'));
+    const serialised = serialiseAutoencoder(context, nets.encoder, all);
     return {
-      status,
+      status: reason === undefined ? 'done' : 'diverged',
       ...(reason === undefined ? {} : { reason }),
       representation: await restoreRepresentation(serialised),
       curves: [],
@@ -182,8 +219,7 @@ export const fitAutoencoder: MethodFit = async (context) => {
       serialised,
     };
   } finally {
-    optimizer.dispose();
-    encoder.dispose();
-    decoder.dispose();
+    nets.encoder.dispose();
+    nets.decoder.dispose();
   }
 };
