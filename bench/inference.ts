@@ -28,6 +28,7 @@ import { createRng } from '../runner/numeric/random.ts';
 const quick = process.argv.includes('--quick');
 const rounds = quick ? 2 : 5;
 const roundSeconds = quick ? 0.03 : 0.2;
+const warmUpSeconds = 0.3;
 const rows: string[][] = [];
 
 /**
@@ -44,7 +45,8 @@ function timePerCall(fn: () => unknown): number {
     let calls = 0;
     let elapsed = 0;
     const t0 = process.cpuUsage();
-    while (elapsed < roundSeconds || calls < 2) {
+    const budget = round === 0 ? warmUpSeconds : roundSeconds;
+    while (elapsed < budget || calls < 2) {
       fn();
       calls++;
       const used = process.cpuUsage(t0);

@@ -10,11 +10,15 @@
  *
  *   npx tsx bench/native.ts              # ROUNDS=3, STEPS=200 (native/torch), TF.js 20
  *   MIDPATH_PYTHON=/usr/bin/python3 npx tsx bench/native.ts
+ *   npx tsx bench/native.ts --demo       # the demo sweep on 2 workers, tfjs vs native
  *
  * PyTorch runs with OMP_NUM_THREADS=OPENBLAS_NUM_THREADS=1; the table names the BLAS library
  * it actually mapped and the OpenBLAS core type.
  */
 import { spawnSync } from 'node:child_process';
+import { mkdtempSync, readdirSync, readFileSync } from 'node:fs';
+import { tmpdir } from 'node:os';
+import { join } from 'node:path';
 import { fileURLToPath } from 'node:url';
 import type { EngineOptions, StepEngine } from '../runner/training/engine.ts';
 import { selectBackend } from '../runner/encoders/backend.ts';
@@ -250,4 +254,75 @@ function printTable(
   }
 }
 
-await main();
+interface DemoTotals {
+  sweepSeconds: number;
+  contrastiveSeconds: number;
+  jobs: number;
+  engines: string[];
+}
+
+/** Runs configs/demo.yaml on 2 workers with one engine; sums what the results record. */
+function runDemo(engine: 'tfjs' | 'native'): DemoTotals {
+  const out = mkdtempSync(join(tmpdir(), `midpath-demo-${engine}-`));
+  const cli = fileURLToPath(new URL('../bin/midpath.mjs', import.meta.url));
+  const demo = fileURLToPath(new URL('../configs/demo.yaml', import.meta.url));
+  const t0 = performance.now();
+  const run = spawnSync(
+    process.execPath,
+    [
+      cli,
+      'run',
+      demo,
+      '--out',
+      out,
+      '--workers',
+      '2',
+      '--fresh',
+      '--set',
+      `train.engine=${engine}`,
+    ],
+    { encoding: 'utf8' },
+  );
+  const sweepSeconds = (performance.now() - t0) / 1000;
+  if (run.status !== 0)
+    throw new Error(`demo run with ${engine} failed: ${run.stderr.slice(-500)}`);
+  const totals: DemoTotals = { sweepSeconds, contrastiveSeconds: 0, jobs: 0, engines: [] };
+  for (const id of readdirSync(join(out, 'jobs'))) {
+    const result = JSON.parse(readFileSync(join(out, 'jobs', id, 'result.json'), 'utf8')) as {
+      kind: string;
+      spec: { method?: { name: string } };
+      info: { engine?: string; kernel?: string };
+      provenance: { wallSeconds: number };
+    };
+    if (result.kind !== 'train' || result.spec.method?.name !== 'contrastive') continue;
+    totals.contrastiveSeconds += result.provenance.wallSeconds;
+    totals.jobs += 1;
+    const label = `${result.info.engine ?? '?'} ${result.info.kernel ?? ''}`.trim();
+    if (!totals.engines.includes(label)) totals.engines.push(label);
+  }
+  return totals;
+}
+
+function benchDemo(): void {
+  const tfjs = runDemo('tfjs');
+  const native = runDemo('native');
+  console.log(
+    'demo sweep (configs/demo.yaml), 2 workers; contrastive train jobs summed over their wall time',
+  );
+  console.log('| engine | train jobs | Σ train-job seconds | whole sweep seconds |');
+  console.log('|---|---:|---:|---:|');
+  for (const [name, t] of [
+    ['tfjs', tfjs],
+    ['native', native],
+  ] as const) {
+    console.log(
+      `| ${name} (${t.engines.join(', ')}) | ${t.jobs} | ${t.contrastiveSeconds.toFixed(1)} | ${t.sweepSeconds.toFixed(1)} |`,
+    );
+  }
+  console.log(
+    `training jobs: native is ${(tfjs.contrastiveSeconds / native.contrastiveSeconds).toFixed(1)}× faster; whole sweep ${(tfjs.sweepSeconds / native.sweepSeconds).toFixed(2)}×`,
+  );
+}
+
+if (process.argv.includes('--demo')) benchDemo();
+else await main();

@@ -1,6 +1,6 @@
 import type { ConfigError } from './config-error.ts';
 import { checkDataRules, checkEncoderRules } from './check-semantics.ts';
-import { isPlainObject, mergeDeep } from './deep-merge.ts';
+import { readAtPath, writeAtPath } from './config-paths.ts';
 import { mapSchemaErrors, type Locate } from './map-schema-errors.ts';
 import { compileSchema, findSchemaAt, loadSchema, type SchemaNode } from './schema.ts';
 import type { ConfigPath } from './source-locations.ts';
@@ -26,37 +26,6 @@ export function listSchemaPaths(node: SchemaNode, prefix = ''): string[] {
     out.push(path, ...listSchemaPaths(child, path));
   }
   return out;
-}
-
-/** Reads the value at dotted `segments` of a config object. */
-export function readAtPath(config: unknown, segments: readonly string[]): unknown {
-  let cursor = config;
-  for (const segment of segments) {
-    if (!isPlainObject(cursor)) return undefined;
-    cursor = cursor[segment];
-  }
-  return cursor;
-}
-
-/**
- * Writes `value` at dotted `segments` of `config` (in place). A mapping value is merged over
- * the mapping already there, so an axis over `data` may list only what differs.
- */
-export function writeAtPath(
-  config: Record<string, unknown>,
-  segments: readonly string[],
-  value: unknown,
-): void {
-  let cursor = config;
-  segments.slice(0, -1).forEach((segment) => {
-    if (!isPlainObject(cursor[segment])) cursor[segment] = {};
-    cursor = cursor[segment] as Record<string, unknown>;
-  });
-  const last = segments[segments.length - 1] ?? '';
-  cursor[last] =
-    isPlainObject(value) && isPlainObject(cursor[last])
-      ? mergeDeep(cursor[last], value)
-      : structuredClone(value);
 }
 
 function error(
@@ -114,6 +83,38 @@ function checkAxisPath(
   return found.node;
 }
 
+/**
+ * Checks the whole top-level section once an axis value is written into it: a value valid
+ * on its own can still leave the section invalid (an axis over `data.file.features` with no
+ * `data.file.path`), and cross-key rules (split fractions summing to 1) span keys.
+ */
+function checkSectionWith(
+  trial: Record<string, unknown>,
+  base: Record<string, unknown>,
+  section: string,
+): { text: string; hint: string }[] {
+  const node = loadSchema().properties?.[section];
+  if (!node) return [];
+  const validate = compileSchema(node);
+  // The file's own errors in this section are reported once, by the main validation.
+  if (!validate(structuredClone(base[section]))) return [];
+  const copy = structuredClone(trial[section]);
+  if (!validate(copy)) {
+    const nowhere: Locate = () => ({ file: '', line: 0, col: 0 });
+    return mapSchemaErrors(validate.errors ?? [], loadSchema(), nowhere, [section]).map((e) => ({
+      text: e.message,
+      hint: e.hint ?? '',
+    }));
+  }
+  const rules =
+    section === 'data'
+      ? checkDataRules(copy as Record<string, unknown>, ['data'])
+      : section === 'encoder'
+        ? checkEncoderRules(copy as Record<string, unknown>, ['encoder'])
+        : [];
+  return rules.map((issue) => ({ text: issue.message, hint: issue.hint }));
+}
+
 /** Validates every listed value as if written at the swept path (merged over the file's value). */
 function checkAxisValues(
   entry: AxisEntry,
@@ -156,21 +157,15 @@ function checkAxisValues(
       return;
     }
     writeAtPath(trial, segments, written);
-    const rules =
-      segments[0] === 'data'
-        ? checkDataRules(trial.data as Record<string, unknown>, ['data'])
-        : segments[0] === 'encoder'
-          ? checkEncoderRules(trial.encoder as Record<string, unknown>, ['encoder'])
-          : [];
-    for (const issue of rules) {
+    for (const message of checkSectionWith(trial, config, segments[0] ?? '')) {
       errors.push(
         error(
           locate,
           at,
           'value',
           'bad-axis-value',
-          `value ${index + 1} of axis \`${entry.path}\`: ${issue.message}`,
-          issue.hint,
+          `value ${index + 1} of axis \`${entry.path}\`: ${message.text}`,
+          message.hint,
         ),
       );
     }

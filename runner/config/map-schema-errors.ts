@@ -205,8 +205,8 @@ const DRAFTERS: Record<string, Drafter> = {
 };
 
 /** Turns one ajv error into a draft ConfigError. */
-function draftError(e: ErrorObject, root: SchemaNode): Draft {
-  const path = parsePointer(e.instancePath, undefined).map((s) =>
+function draftError(e: ErrorObject, root: SchemaNode, prefix: ConfigPath): Draft {
+  const path = [...prefix, ...parsePointer(e.instancePath, undefined)].map((s) =>
     /^\d+$/.test(String(s)) ? Number(s) : s,
   );
   const drafter = DRAFTERS[e.keyword];
@@ -224,7 +224,10 @@ function draftError(e: ErrorObject, root: SchemaNode): Draft {
  * method written as text is checked as a name, as a mapping as an object); when no branch
  * type matches, one wrong-type error replaces them all.
  */
-function foldAnyOf(errors: ErrorObject[]): { kept: ErrorObject[]; drafts: Draft[] } {
+function foldAnyOf(
+  errors: ErrorObject[],
+  prefix: ConfigPath,
+): { kept: ErrorObject[]; drafts: Draft[] } {
   const anyOfs = errors.filter((e) => e.keyword === 'anyOf');
   const drafts: Draft[] = [];
   const chosen = new Map<string, number>();
@@ -234,7 +237,7 @@ function foldAnyOf(errors: ErrorObject[]): { kept: ErrorObject[]; drafts: Draft[
     chosen.set(`${e.instancePath}|${e.schemaPath}`, index);
     if (index < 0) {
       const wanted = [...new Set(branches.map((t) => describeType(t[0] ?? '')))].join(' or ');
-      const path = parsePointer(e.instancePath, undefined).map((s) =>
+      const path = [...prefix, ...parsePointer(e.instancePath, undefined)].map((s) =>
         /^\d+$/.test(String(s)) ? Number(s) : s,
       );
       const hint = (e.parentSchema as SchemaNode).description;
@@ -269,12 +272,12 @@ export function mapSchemaErrors(
   locate: Locate,
   prefix: ConfigPath = [],
 ): ConfigError[] {
-  const { kept, drafts } = foldAnyOf([...errors]);
-  const all = [...drafts, ...kept.map((e) => draftError(e, root))];
+  const { kept, drafts } = foldAnyOf([...errors], prefix);
+  const all = [...drafts, ...kept.map((e) => draftError(e, root, prefix))];
   const seen = new Set<string>();
   const out: ConfigError[] = [];
   for (const draft of all) {
-    const path = [...prefix, ...draft.path];
+    const path = draft.path;
     const at = locate(path, draft.prefer);
     const error: ConfigError = {
       code: draft.code,

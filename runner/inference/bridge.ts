@@ -17,13 +17,8 @@ import {
   symmetrizeInPlace,
   transpose,
 } from '../numeric/linalg/multiply.ts';
-import { inverseFromCholesky } from '../numeric/linalg/spd.ts';
-import {
-  solveLower,
-  solveLowerRowsInPlace,
-  solveLowerTranspose,
-  solveUpperRowsInPlace,
-} from '../numeric/linalg/triangular.ts';
+import { inverseFromCholesky, solveWithCholesky } from '../numeric/linalg/spd.ts';
+import { solveLower, solveLowerTranspose } from '../numeric/linalg/triangular.ts';
 import { centreRows, checkFinite, checkInteger, checkLength, checkModel } from './validate.ts';
 
 /** A bridge factorisation for one model and one T; `solve` answers batches of queries. */
@@ -36,18 +31,17 @@ export interface BridgeSolver {
   solve(starts: ArrayLike<number>, goals: ArrayLike<number>, queries: number): BridgePosterior;
 }
 
-/** What one factorisation keeps for the solves; every product in the hot path is A Bᵀ form. */
+/**
+ * What one factorisation keeps for the solves: the filter gains K_t = D_t⁻¹ P and the
+ * smoother gains J_t = D_t⁻¹ Pᵀ (P = Q⁻¹F), both obtained from the Cholesky factor of D_t
+ * by triangular solves, so every per-query operation is one [queries, d] × [d, d] product.
+ */
 interface BridgeFactor {
   model: TransitionModel;
-  /** P = Q⁻¹F [d, d] and Pᵀ. */
-  p: Mat;
-  pT: Mat;
-  /** L_t and U_t = L_tᵀ, t = 1 … T, with D_t = L_t L_tᵀ. */
-  lower: Mat[];
-  upper: Mat[];
-  /** V_t = L_t⁻¹ Λ_{t,t+1} and V_tᵀ, t = 1 … T−1. */
-  coupling: Mat[];
-  couplingT: Mat[];
+  /** K_t, t = 1 … T, each [d, d]. */
+  filterGain: Mat[];
+  /** J_t, t = 1 … T, each [d, d] (J_T maps the goal in). */
+  smootherGain: Mat[];
   covariances: Mat[];
 }
 
@@ -60,36 +54,32 @@ export function prepareBridge(model: TransitionModel, T: number): BridgeSolver {
   const lq = cholesky(model.Q, 'transition noise Q');
   const w = solveLower(lq, model.F);
   const p = solveLowerTranspose(lq, w); // [d, d] = Q⁻¹ F = −Λ_{t+1,t}
+  const pT = transpose(p); // = −Λ_{t,t+1}
   const diag = multiplyTransA(w, w); // Λ_tt = Q⁻¹ + Fᵀ Q⁻¹ F
   const qInv = inverseFromCholesky(lq);
   for (let i = 0; i < diag.data.length; i++) diag.data[i] = diag.data[i]! + qInv.data[i]!;
   symmetrizeInPlace(diag);
 
-  // Forward: D_1 = Λ_11, D_t = Λ_tt − Λ_{t,t−1} D_{t−1}⁻¹ Λ_{t−1,t} = Λ_tt − V_{t−1}ᵀ V_{t−1},
-  // with D_t = L_t L_tᵀ and V_t = L_t⁻¹ Λ_{t,t+1} = −L_t⁻¹ Pᵀ.
-  const pT = transpose(p);
+  // Forward block LDLᵀ: D_1 = Λ_11, D_t = Λ_tt − Λ_{t,t−1} D_{t−1}⁻¹ Λ_{t−1,t} = Λ_tt − V_{t−1}ᵀ V_{t−1}
+  // with D_t = L_t L_tᵀ and V_t = L_t⁻¹ Pᵀ (a difference of a PSD term keeps D_t symmetric).
   const lower: Mat[] = [];
-  const coupling: Mat[] = [];
+  const filterGain: Mat[] = [];
+  const smootherGain: Mat[] = [];
   let pivot = diag;
   for (let t = 0; t < T; t++) {
     const l = cholesky(pivot, `bridge pivot D_${t + 1}`);
     lower.push(l);
-    if (t === T - 1) break;
     const v = solveLower(l, pT);
-    for (let i = 0; i < v.data.length; i++) v.data[i] = -v.data[i]!;
-    coupling.push(v);
+    smootherGain.push(solveLowerTranspose(l, v)); // J_t = D_t⁻¹ Pᵀ
+    filterGain.push(solveWithCholesky(l, p)); // K_t = D_t⁻¹ P
     const vv = multiplyTransA(v, v);
     pivot = symmetrizeInPlace({ rows: d, cols: d, data: diag.data.map((x, i) => x - vv.data[i]!) });
   }
   const factor: BridgeFactor = {
     model,
-    p,
-    pT,
-    lower,
-    upper: lower.map(transpose),
-    coupling,
-    couplingT: coupling.map(transpose),
-    covariances: marginalCovariances(lower, coupling),
+    filterGain,
+    smootherGain,
+    covariances: marginalCovariances(lower, smootherGain),
   };
   return {
     dim: d,
@@ -101,16 +91,16 @@ export function prepareBridge(model: TransitionModel, T: number): BridgeSolver {
 
 /**
  * Backward covariance recursion: Σ_T = D_T⁻¹, Σ_t = D_t⁻¹ + G_t Σ_{t+1} G_tᵀ with
- * G_t = D_t⁻¹ Λ_{t,t+1} = L_t⁻ᵀ V_t (MATH.md §3). Runs once per factorisation.
+ * G_t = D_t⁻¹ Λ_{t,t+1} = −J_t (MATH.md §3; the sign cancels). Runs once per factorisation.
  */
-function marginalCovariances(lower: Mat[], coupling: Mat[]): Mat[] {
+function marginalCovariances(lower: Mat[], smootherGain: Mat[]): Mat[] {
   const T = lower.length;
   const out: Mat[] = new Array<Mat>(T);
   let next = inverseFromCholesky(lower[T - 1]!);
   out[T - 1] = next;
   for (let t = T - 2; t >= 0; t--) {
     const l = lower[t]!;
-    const g = solveLowerTranspose(l, coupling[t]!);
+    const g = smootherGain[t]!;
     const gsg = multiplyTransB(multiply(g, next), g);
     const inv = inverseFromCholesky(l);
     next = symmetrizeInPlace({
@@ -123,7 +113,12 @@ function marginalCovariances(lower: Mat[], coupling: Mat[]): Mat[] {
   return out;
 }
 
-/** Forward and back substitution for a batch of right-hand sides stored as rows ([queries, d]). */
+/**
+ * All queries at once, each a row of a [queries, d] block. With m_t = D_t⁻¹ y_t the block
+ * LDLᵀ recursions of MATH.md §3 read, since h_t = 0 between the ends:
+ * forward m_1 = K_1 ψ₀, m_t = K_t m_{t−1} (+ J_T ψ_g at t = T); backward μ_T = m_T,
+ * μ_t = m_t + J_t μ_{t+1} — the Rauch–Tung–Striebel form, O(T d²) per query.
+ */
 function solveQueries(
   f: BridgeFactor,
   starts: ArrayLike<number>,
@@ -132,43 +127,34 @@ function solveQueries(
 ): BridgePosterior {
   const { model } = f;
   const d = model.dim;
-  const T = f.lower.length;
+  const T = f.filterGain.length;
   checkInteger('solveBridge: queries', queries, 0);
   checkLength('solveBridge: starts', starts.length, queries * d, `[${queries}, ${d}]`);
   checkLength('solveBridge: goals', goals.length, queries * d, `[${queries}, ${d}]`);
   checkFinite('solveBridge: starts', starts, d);
   checkFinite('solveBridge: goals', goals, d);
   const size = queries * d;
-  const s0 = centreRows(starts, queries, d, model.mean); // [queries, d]
   const sg = centreRows(goals, queries, d, model.mean); // [queries, d]
-  const z: Float64Array[] = []; // z_t = L_t⁻¹ y_t, each [queries, d]
+  const m: Float64Array[] = []; // m_t, each [queries, d]; overwritten by μ_t
+  let prev = centreRows(starts, queries, d, model.mean); // ψ₀ − μ̄, then m_{t−1}
   const tmp = new Float64Array(size);
   for (let t = 0; t < T; t++) {
-    const y = new Float64Array(size);
-    if (t === 0) multiplyTransBInto(s0, f.p.data, y, queries, d, d); // h_1 = Q⁻¹F ψ₀ (rows: ψ₀ Pᵀ)
-    if (t === T - 1) {
-      multiplyTransBInto(sg, f.pT.data, tmp, queries, d, d); // h_T += FᵀQ⁻¹ ψ_g (rows: ψ_g P)
-      for (let i = 0; i < size; i++) y[i] = y[i]! + tmp[i]!;
-    }
-    if (t > 0) {
-      multiplyTransBInto(z[t - 1]!, f.couplingT[t - 1]!.data, tmp, queries, d, d); // V_{t−1}ᵀ z_{t−1}
-      for (let i = 0; i < size; i++) y[i] = y[i]! - tmp[i]!;
-    }
-    solveLowerRowsInPlace(f.lower[t]!.data, d, y, queries);
-    z.push(y);
+    const mt = new Float64Array(size);
+    multiplyTransBInto(prev, f.filterGain[t]!.data, mt, queries, d, d); // rows: m_{t−1} K_tᵀ
+    m.push(mt);
+    prev = mt;
   }
-  // Backward: μ_T = L_T⁻ᵀ z_T, μ_t = L_t⁻ᵀ (z_t − V_t μ_{t+1}); z_t is overwritten by μ_t.
-  for (let t = T - 1; t >= 0; t--) {
-    const mu = z[t]!;
-    if (t < T - 1) {
-      multiplyTransBInto(z[t + 1]!, f.coupling[t]!.data, tmp, queries, d, d);
-      for (let i = 0; i < size; i++) mu[i] = mu[i]! - tmp[i]!;
-    }
-    solveUpperRowsInPlace(f.upper[t]!.data, d, mu, queries);
+  const last = m[T - 1]!;
+  multiplyTransBInto(sg, f.smootherGain[T - 1]!.data, tmp, queries, d, d); // J_T ψ_g
+  for (let i = 0; i < size; i++) last[i] = last[i]! + tmp[i]!;
+  for (let t = T - 2; t >= 0; t--) {
+    const mu = m[t]!;
+    multiplyTransBInto(m[t + 1]!, f.smootherGain[t]!.data, tmp, queries, d, d); // J_t μ_{t+1}
+    for (let i = 0; i < size; i++) mu[i] = mu[i]! + tmp[i]!;
   }
   const means = new Float64Array(queries * T * d); // [queries, T, d]
   for (let t = 0; t < T; t++) {
-    const mu = z[t]!;
+    const mu = m[t]!;
     for (let q = 0; q < queries; q++) {
       const o = (q * T + t) * d;
       for (let j = 0; j < d; j++) means[o + j] = mu[q * d + j]! + model.mean[j]!;

@@ -1,5 +1,5 @@
 import { listSeeds } from '../config/count-jobs.ts';
-import { writeAtPath } from '../config/check-sweep.ts';
+import { writeAtPath } from '../config/config-paths.ts';
 import { isEvalInput, isTrainInput, METHOD_INPUTS } from '../config/method-inputs.ts';
 import type { ExperimentConfig, MethodConfig } from '../config/types.ts';
 import { hashJob } from './hash-job.ts';

@@ -9,7 +9,7 @@ export interface LevelColumn {
   unit: string;
   /** Identity for lookups. */
   key: string;
-  /** Header text, e.g. "4" or "4 jumps"; 'all' reads as "value". */
+  /** Header text, e.g. "4" or "4 (jumps)"; 'all' reads as "value". */
   label: string;
 }
 
@@ -20,7 +20,8 @@ export function levelKeyOf(row: Pick<MetricSummary, 'level' | 'unit'>): string {
 
 function labelOf(level: number | string, unit: string): string {
   if (level === 'all') return 'value';
-  if (unit === 'jump') return `${level} ${level === 1 ? 'jump' : 'jumps'}`;
+  // A forecast horizon of 4 jumps, or 3 bridge waypoints spaced by jumps: "(jumps)" fits both.
+  if (unit === 'jump') return `${level} (jumps)`;
   return String(level);
 }
 

@@ -53,6 +53,7 @@ function stateOf(
   if (result && result.status !== 'failed') return result.status;
   // A failed job is rerun by the next `run`; while a runner holds its lock it is running.
   if (readLiveOwner(lockPathOf(dir, id)) || external?.phase === 'running') return 'running';
+  if (external?.phase === 'queued') return 'pending'; // resubmitted: a task will run it again
   if (result) return 'failed';
   return external?.phase === 'ended' ? 'failed' : 'pending';
 }
@@ -101,12 +102,15 @@ export async function readRunStatus(
       cost.count += 1;
     }
     spent.set(job.kind, cost);
-    if ((state === 'failed' || state === 'diverged') && result) {
+    if (state === 'failed' || state === 'diverged') {
+      // The result file is the proof; without one, the scheduler's final state is the reason.
       failures.push({
         id: job.id,
         kind: job.kind,
         status: state,
-        reason: result.error?.reason ?? '(no reason recorded)',
+        reason: result
+          ? (result.error?.reason ?? '(no reason recorded)')
+          : (seen?.reason ?? '(no result)'),
       });
     }
   }

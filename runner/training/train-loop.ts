@@ -81,14 +81,7 @@ export async function runTrainingLoop(
     if (!Number.isFinite(stats.loss) || !Number.isFinite(stats.gradNorm)) {
       const reason = `step ${step}: ${describeBlowUp(stats)}; last finite loss ${lastFinite}`;
       hooks.log(`diverged at ${reason}`);
-      return {
-        status: 'diverged',
-        reason,
-        curves,
-        steps: step - 1,
-        stepsPerSecond: rate(step - 1, busy),
-        ...(final === undefined ? {} : { final }),
-      };
+      return finish('diverged', curves, step - 1, busy, final, reason);
     }
     lastFinite = stats.loss;
     window.push(stats);
@@ -110,11 +103,23 @@ export async function runTrainingLoop(
       await yieldToEventLoop(); // lets an abort from the runner arrive
     }
   }
+  return finish('done', curves, train.steps, busy, final);
+}
+
+function finish(
+  status: LoopResult['status'],
+  curves: CurvePoint[],
+  steps: number,
+  busyMs: number,
+  final: LoopResult['final'],
+  reason?: string,
+): LoopResult {
   return {
-    status: 'done',
+    status,
     curves,
-    steps: train.steps,
-    stepsPerSecond: rate(train.steps, busy),
+    steps,
+    stepsPerSecond: rate(steps, busyMs),
+    ...(reason === undefined ? {} : { reason }),
     ...(final === undefined ? {} : { final }),
   };
 }

@@ -85,3 +85,23 @@ describe('midpath status (end to end)', () => {
     expect(io.text()).toContain('store-not-a-run');
   });
 });
+
+describe('status with a scheduler view', () => {
+  it('takes a missing result plus an ended task as a failure with the scheduler reason', async () => {
+    const { readRunStatus } = await import('../../runner/store/run-status.ts');
+    const { dir } = tempRun();
+    const trains = [fakeTrainSpec(0), fakeTrainSpec(1), fakeTrainSpec(2)];
+    writePlanFile(dir, { experiment: 'g', createdAt: 'now', config: {}, jobs: trains });
+    await writeResultAtomic(dir, resultOf(trains[2]!, 'failed', 1, 'the job threw: x'));
+    const external = new Map([
+      [trains[0]!.id, { phase: 'ended' as const, reason: 'SLURM task 7_0 ended TIMEOUT' }],
+      [trains[1]!.id, { phase: 'queued' as const, reason: '' }],
+      [trains[2]!.id, { phase: 'queued' as const, reason: '' }],
+    ]);
+    const status = await readRunStatus(dir, external);
+    expect(status.counts).toMatchObject({ failed: 1, pending: 2 });
+    expect(status.failures).toEqual([
+      expect.objectContaining({ reason: 'SLURM task 7_0 ended TIMEOUT' }),
+    ]);
+  });
+});

@@ -53,6 +53,7 @@ const cases: [string, ConfigErrorCode, number, number, string?][] = [
   ['axis-not-a-list.yaml', 'wrong-type', 4, 10],
   ['bad-axis-value-range.yaml', 'bad-axis-value', 4, 27],
   ['bad-axis-value-block.yaml', 'bad-axis-value', 6, 37],
+  ['bad-axis-value-section.yaml', 'bad-axis-value', 7, 9],
   ['empty-axis.yaml', 'empty-axis', 4, 5],
   ['duplicate-axis-yaml-key.yaml', 'duplicate-axis', 5, 5],
   ['duplicate-axis-together.yaml', 'duplicate-axis', 6, 7],

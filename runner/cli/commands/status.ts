@@ -2,7 +2,9 @@ import { existsSync } from 'node:fs';
 import { resolve } from 'node:path';
 import { parseArgs } from 'node:util';
 import { formatDuration } from '../../execute/progress-printer.ts';
-import type { RunStatus } from '../../store/run-status.ts';
+import { readSchedulerView } from '../../execute/slurm/scheduler-view.ts';
+import { readSubmissions } from '../../execute/slurm/slurm-manifest.ts';
+import type { ExternalView, RunStatus } from '../../store/run-status.ts';
 import { readRunStatus } from '../../store/run-status.ts';
 import { EXIT, type CliCommand, type CliIo } from '../command.ts';
 
@@ -11,7 +13,8 @@ const USAGE = [
   '',
   'Says where a results directory stands: jobs done, running, failed, diverged and pending,',
   "each failure's reason, and the time to finish estimated from the measured cost of the",
-  'finished jobs of each kind. Safe to use while a run writes to the directory.',
+  'finished jobs of each kind. Safe to use while a run writes to the directory. For a run',
+  'submitted with --engine slurm, also asks SLURM (squeue, scontrol) about jobs without a result.',
   '  --json    print the status as one JSON object',
   'Exit status: 0 nothing failed or diverged, 1 some did, 2 DIR is not a results directory.',
 ].join('\n');
@@ -67,6 +70,20 @@ export function formatStatus(status: RunStatus, dir: string): string {
   return lines.join('\n');
 }
 
+/** For a directory filled by `--engine slurm`: what SLURM says about jobs without a result. */
+function readSlurmView(dir: string): Map<string, ExternalView> {
+  const external = new Map<string, ExternalView>();
+  if (readSubmissions(dir).length === 0) return external;
+  for (const [id, seen] of readSchedulerView(dir)) {
+    const without = seen.state.startsWith('COMPLETED') ? ' without writing a result' : '';
+    external.set(id, {
+      phase: seen.phase,
+      reason: `SLURM task ${seen.task} ended ${seen.state}${without}`,
+    });
+  }
+  return external;
+}
+
 /** `midpath status DIR`: counts, failures and an ETA for a results directory. */
 export const statusCommand: CliCommand = {
   name: 'status',
@@ -82,7 +99,7 @@ export const statusCommand: CliCommand = {
       );
       return EXIT.badInput;
     }
-    const status = await readRunStatus(dir);
+    const status = await readRunStatus(dir, readSlurmView(dir));
     if (status.total === 0 && status.experiment === null) {
       io.err(
         `midpath status: store-not-a-run: ${parsed.dir}: no plan.json and no results; give the --out directory of a \`midpath run\``,

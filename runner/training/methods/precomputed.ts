@@ -14,7 +14,7 @@ import * as path from 'node:path';
 import { parseNumericCsv } from '../../data/formats/csv.ts';
 import { parseNpy } from '../../data/formats/npy.ts';
 import type { Dataset, Episode } from '../../data/episode.ts';
-import type { MethodFit } from '../method.ts';
+import type { MethodContext, MethodFit } from '../method.ts';
 import { restoreRepresentation, type SerialisedRepresentation } from '../serialised.ts';
 import { TrainingError } from '../training-error.ts';
 
@@ -66,8 +66,11 @@ function allEpisodes(dataset: Dataset): Episode[] {
   return [...dataset.train, ...dataset.val, ...dataset.test];
 }
 
-/** The 'precomputed' method. */
-export const fitPrecomputed: MethodFit = async ({ method, dataset, spec, hooks }) => {
+/** Reads the embeddings file through the caller's readFile hook. */
+async function readEmbeddings(
+  context: MethodContext,
+): Promise<{ bytes: Uint8Array; file: string }> {
+  const { method, spec, hooks } = context;
   if (method.path === undefined || method.path === '') {
     throw new TrainingError(
       'embeddings-missing',
@@ -83,9 +86,8 @@ export const fitPrecomputed: MethodFit = async ({ method, dataset, spec, hooks }
     );
   }
   const file = path.resolve(spec.baseDir, method.path);
-  let bytes: Uint8Array;
   try {
-    bytes = await hooks.readFile(file);
+    return { bytes: await hooks.readFile(file), file };
   } catch (error) {
     throw new TrainingError(
       'embeddings-missing',
@@ -93,9 +95,26 @@ export const fitPrecomputed: MethodFit = async ({ method, dataset, spec, hooks }
       file,
     );
   }
-  const { rows, dim, data } = parseEmbeddings(bytes, file);
+}
+
+/** Every observation of the dataset in embedding order: [rows, obsDim]. */
+function observationKeys(dataset: Dataset): Float32Array {
   const episodes = allEpisodes(dataset);
-  const expected = episodes.reduce((a, e) => a + e.steps, 0);
+  const keys = new Float32Array(episodes.reduce((a, e) => a + e.obs.length, 0));
+  let at = 0;
+  for (const e of episodes) {
+    keys.set(e.obs, at);
+    at += e.obs.length;
+  }
+  return keys;
+}
+
+/** The 'precomputed' method. */
+export const fitPrecomputed: MethodFit = async (context) => {
+  const { method, dataset, spec } = context;
+  const { bytes, file } = await readEmbeddings(context);
+  const { rows, dim, data } = parseEmbeddings(bytes, file);
+  const expected = allEpisodes(dataset).reduce((a, e) => a + e.steps, 0);
   if (rows !== expected) {
     throw new TrainingError(
       'embeddings-shape',
@@ -104,12 +123,7 @@ export const fitPrecomputed: MethodFit = async ({ method, dataset, spec, hooks }
     );
   }
   const trainRows = dataset.train.reduce((a, e) => a + e.steps, 0);
-  const keys = new Float32Array(expected * dataset.obsDim);
-  let at = 0;
-  for (const e of episodes) {
-    keys.set(e.obs, at);
-    at += e.obs.length;
-  }
+  const values = scaleToTarget(data, rows, dim, trainRows, spec.train.scale);
   const serialised: SerialisedRepresentation = {
     method: method.name,
     label: method.label,
@@ -117,11 +131,8 @@ export const fitPrecomputed: MethodFit = async ({ method, dataset, spec, hooks }
     obsDim: dataset.obsDim,
     model: { kind: 'lookup' },
     arrays: {
-      keys: { shape: [expected, dataset.obsDim], data: keys },
-      values: {
-        shape: [expected, dim],
-        data: scaleToTarget(data, rows, dim, trainRows, spec.train.scale),
-      },
+      keys: { shape: [expected, dataset.obsDim], data: observationKeys(dataset) },
+      values: { shape: [expected, dim], data: values },
     },
     meta: { source: method.path },
   };
