@@ -57,6 +57,9 @@ async function tryWasm(): Promise<BackendInfo | undefined> {
  * for benchmarks and tests; it throws when that backend cannot load.
  */
 export function selectBackend(prefer?: BackendName): Promise<BackendInfo> {
+  // Production mode silences TF.js's console banners (e.g. the cpu backend's advert for
+  // tfjs-node), which would otherwise interleave with the CLI's own output.
+  tf.env().set('PROD', true);
   if (prefer !== undefined) return forceBackend(prefer);
   chosen ??= (async () => (await tryNode()) ?? (await tryWasm()) ?? (await useCpu()))();
   return chosen;

@@ -25,7 +25,7 @@ import { centreRows, checkFinite, checkInteger, checkLength, checkModel } from '
 export interface BridgeSolver {
   dim: number;
   T: number;
-  /** T marginal covariances [dim, dim], shared by every query. */
+  /** T marginal covariances [dim, dim], shared by every query and every `solve` result: read only. */
   covariances: Mat[];
   /** Posterior for `queries` start/goal pairs, each [queries, dim]; means [queries, T, dim]. */
   solve(starts: ArrayLike<number>, goals: ArrayLike<number>, queries: number): BridgePosterior;

@@ -67,6 +67,12 @@ export function compareLevels(a: number | string, b: number | string): number {
   return compareText(a, b);
 }
 
+/** Units in reading order: none, environment steps, then geometric jumps, then others. */
+export function compareUnits(a: string, b: string): number {
+  const rank = (u: string): number => ['', 'step', 'jump'].indexOf(u) + 1 || 4;
+  return rank(a) - rank(b) || compareText(a, b);
+}
+
 /** Code-point order: unlike localeCompare it is the same on every machine. */
 export function compareText(a: string, b: string): number {
   return a < b ? -1 : a > b ? 1 : 0;
@@ -178,7 +184,7 @@ export function aggregateMetrics(
       compareText(a.suite, b.suite) ||
       compareText(a.metric, b.metric) ||
       compareText(a.source, b.source) ||
-      compareText(a.unit, b.unit) ||
+      compareUnits(a.unit, b.unit) ||
       compareLevels(a.level, b.level)
     );
   });

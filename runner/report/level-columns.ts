@@ -2,7 +2,7 @@
  * The columns of a wide table (LaTeX, HTML): one per (unit, level) — a forecast horizon of 4
  * environment steps and one of 4 geometric jumps are different columns.
  */
-import { compareLevels, compareText, type MetricSummary } from './aggregate.ts';
+import { compareLevels, compareUnits, type MetricSummary } from './aggregate.ts';
 
 export interface LevelColumn {
   level: number | string;
@@ -40,6 +40,6 @@ export function levelColumnsOf(rows: readonly MetricSummary[]): LevelColumn[] {
     }
   }
   return [...columns.values()].sort(
-    (a, b) => compareText(a.unit, b.unit) || compareLevels(a.level, b.level),
+    (a, b) => compareUnits(a.unit, b.unit) || compareLevels(a.level, b.level),
   );
 }

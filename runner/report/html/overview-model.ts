@@ -103,9 +103,9 @@ export function buildOverview(run: LoadedRun): OverviewModel {
   const results = run.results;
   const varied = run.settingColumns.map((name) => ({
     name,
-    values: distinct(results.map((r) => formatSettingValue(r.spec.setting[name]) || '(not set)')).join(
-      ', ',
-    ),
+    values: distinct(
+      results.map((r) => formatSettingValue(r.spec.setting[name]) || '(not set)'),
+    ).join(', '),
   }));
   const failures = results
     .filter((r) => r.status !== 'done')
