@@ -38,6 +38,20 @@ function seconds(start: number): number {
   return (performance.now() - start) / 1000;
 }
 
+/** CPU seconds of this process since `start` (process.cpuUsage); robust on a shared machine. */
+function cpuSeconds(start: NodeJS.CpuUsage): number {
+  const used = process.cpuUsage(start);
+  return (used.user + used.system) / 1e6;
+}
+
+/** Runs `step`, returning wall and CPU seconds. */
+async function measure(step: () => unknown): Promise<{ wall: number; cpu: number }> {
+  const cpu = process.cpuUsage();
+  const start = performance.now();
+  await step();
+  return { wall: seconds(start), cpu: cpuSeconds(cpu) };
+}
+
 async function timeSweep(jobs: JobSpec[], workers: number, dir: string): Promise<number> {
   const ledger = new RunLedger(dir, { runId: `bench-${workers}` });
   const start = performance.now();
@@ -73,25 +87,36 @@ async function benchParallel(): Promise<void> {
   ]);
 }
 
-async function planOf(count: number): Promise<{ jobs: JobSpec[]; expandSeconds: number }> {
+/** Loads the overhead experiment: `count` / 2 seeds of one method, a train and an evaluation each. */
+async function loadOverheadExperiment(count: number): Promise<() => JobSpec[]> {
   const file = join(root, 'overhead.yaml');
   writeFileSync(file, `name: overhead\nmethods: [contrastive]\nsweep:\n  seeds: ${count / 2}\n`);
   const loaded = await loadExperiment(file);
   if (!loaded.ok) throw new Error(JSON.stringify(loaded.errors));
-  const start = performance.now();
-  const jobs = expandPlan(loaded.config, loaded.baseDir);
-  return { jobs, expandSeconds: seconds(start) };
+  const { config, baseDir } = loaded;
+  return () => expandPlan(config, baseDir);
 }
 
-function overheadRow(step: string, secs: number, count: number, target?: number): void {
+function overheadRow(
+  step: string,
+  t: { wall: number; cpu: number },
+  count: number,
+  target?: number,
+): void {
   const verdict =
-    target === undefined ? '' : `${(secs / target).toFixed(2)} of the ${target} s target`;
-  rows.push([step, `${secs.toFixed(3)} s`, `${((secs / count) * 1e6).toFixed(1)} µs/job`, verdict]);
+    target === undefined ? '' : `${(t.wall / target).toFixed(2)} of the ${target} s target`;
+  const perJob = `${((t.wall / count) * 1e6).toFixed(1)} µs/job`;
+  rows.push([step, `${t.wall.toFixed(3)} s (CPU ${t.cpu.toFixed(3)} s)`, perJob, verdict]);
 }
 
 async function benchOverhead(): Promise<void> {
-  const { jobs, expandSeconds } = await planOf(JOBS);
-  overheadRow(`expand ${jobs.length} jobs`, expandSeconds, jobs.length, 1);
+  let jobs: JobSpec[] = [];
+  overheadRow(
+    `expand ${JOBS} jobs`,
+    await measure(async () => (jobs = await planOf(JOBS))),
+    JOBS,
+    1,
+  );
   const dir = join(root, 'overhead');
   const ledger = new RunLedger(dir, { runId: 'bench-overhead' });
   const provenance = {
@@ -105,29 +130,33 @@ async function benchOverhead(): Promise<void> {
     peakRssBytes: 0,
     hostname: 'bench',
   };
-  let start = performance.now();
-  for (const spec of jobs) {
-    const metrics = [
-      { suite: 'forecast', metric: 'forecast_nmse', level: 1, source: 'fitted', value: spec.seed },
-    ];
-    await ledger.record({ spec, status: 'done', metrics, info: {}, provenance });
-  }
-  overheadRow('write result.json (fsync) + index row, per job', seconds(start), jobs.length);
-  start = performance.now();
-  const summary = await runSweep(jobs, { ledger, fresh: false, retries: 0, timeLimitMs: () => 1 });
+  const writes = await measure(async () => {
+    for (const spec of jobs) {
+      const metrics = [
+        {
+          suite: 'forecast',
+          metric: 'forecast_nmse',
+          level: 1,
+          source: 'fitted',
+          value: spec.seed,
+        },
+      ];
+      await ledger.record({ spec, status: 'done', metrics, info: {}, provenance });
+    }
+  });
+  overheadRow('write result.json (fsync) + index row', writes, jobs.length);
+  const scan = await measure(() =>
+    runSweep(jobs, { ledger, fresh: false, retries: 0, timeLimitMs: () => 1 }),
+  );
+  overheadRow('resume scan (all kept, nothing to run)', scan, jobs.length, 1);
+  ledger.close();
+  overheadRow('readRun (plan + every result.json)', await measure(() => readRun(dir)), jobs.length);
   overheadRow(
-    `resume scan (all ${summary.stored} kept, nothing to run)`,
-    seconds(start),
+    'rebuild index.sqlite from result files',
+    await measure(() => rebuildIndex(dir)),
     jobs.length,
     1,
   );
-  ledger.close();
-  start = performance.now();
-  await readRun(dir);
-  overheadRow('readRun (plan + every result.json)', seconds(start), jobs.length);
-  start = performance.now();
-  await rebuildIndex(dir);
-  overheadRow('rebuild index.sqlite from result files', seconds(start), jobs.length, 1);
 }
 
 function printTable(): void {

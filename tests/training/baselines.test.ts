@@ -87,7 +87,7 @@ describe('slow feature analysis', () => {
     const { x, mean, w } = slowFeatures([episode], 1);
     const y = x.clone().subRowVector(Array.from(mean)).mmul(w).getColumn(0);
     expect(Math.abs(correlation(y, source))).toBeGreaterThan(0.99);
-    // The fastest-but-one direction is not slow: x2 = cos 11t alone correlates ~0 with sin t.
+    // The problem is not trivial: the raw input x2 = cos 11t is uncorrelated with sin t.
     expect(
       Math.abs(
         correlation(

@@ -3,7 +3,12 @@
  * tables: bridge error against waypoint index, training curves, 2-D projections.
  */
 import type { LoadedRun } from '../load-run.ts';
-import { readBridgeProfiles, readCurves, readProjection } from '../artifacts.ts';
+import {
+  readBridgeProfiles,
+  readCurves,
+  readProjection,
+  type BridgeProfile,
+} from '../artifacts.ts';
 import { renderLineChart, type ChartSeries } from '../svg/line-chart.ts';
 import { renderScatter } from '../svg/scatter-chart.ts';
 import {
@@ -12,8 +17,39 @@ import {
   settingLabel,
   SOURCE_PREFERENCE,
   summarisedPoint,
+  unitSuffix,
   type FigureGroup,
 } from './figure-helpers.ts';
+
+/** The profile a job contributes: preferred source, then steps over jumps, then the largest T. */
+function longestProfile(profiles: readonly BridgeProfile[]): BridgeProfile | null {
+  const source =
+    SOURCE_PREFERENCE.find((s) => profiles.some((p) => p.source === s)) ?? profiles[0]?.source;
+  const units = new Set(profiles.filter((p) => p.source === source).map((p) => p.unit));
+  const unit = ['step', '', 'jump'].find((u) => units.has(u)) ?? [...units][0];
+  const mine = profiles.filter((p) => p.source === source && p.unit === unit);
+  return mine.reduce<BridgeProfile | null>((a, p) => (a === null || p.T > a.T ? p : a), null);
+}
+
+function waypointSeries(
+  methods: readonly string[],
+  byMethod: Map<string, number[][]>,
+  T: number,
+): ChartSeries[] {
+  const series: ChartSeries[] = [];
+  for (const method of methods) {
+    const lists = (byMethod.get(method) ?? []).filter((l) => l.length === T);
+    if (lists.length === 0) continue;
+    const points = Array.from({ length: T }, (_, k) =>
+      summarisedPoint(
+        k + 1,
+        lists.map((l) => l[k] ?? Number.NaN),
+      ),
+    );
+    series.push({ name: method, points });
+  }
+  return series;
+}
 
 /** Bridge error against waypoint index, largest waypoint count, from bridge.json profiles. */
 export async function figureByWaypoint(run: LoadedRun): Promise<FigureGroup> {
@@ -23,45 +59,30 @@ export async function figureByWaypoint(run: LoadedRun): Promise<FigureGroup> {
   let missing = 0;
   for (const [key, jobs] of groupBySetting(done, run.settingColumns)) {
     const byMethod = new Map<string, number[][]>();
-    let T = 0;
+    let chosen: BridgeProfile | null = null;
     const profilesOf = await Promise.all(jobs.map((j) => readBridgeProfiles(run.dir, j)));
     profilesOf.forEach((profiles, i) => {
-      if (profiles === null) return void missing++;
-      const source =
-        SOURCE_PREFERENCE.find((s) => profiles.some((p) => p.source === s)) ?? profiles[0]?.source;
-      const mine = profiles.filter((p) => p.source === source && p.unit !== 'jump');
-      const longest = mine.reduce(
-        (a, p) => (p.T > a.T ? p : a),
-        mine[0] ?? { T: 0, nmse: [] as number[] },
-      );
-      T = Math.max(T, longest.T);
+      const profile = profiles === null ? null : longestProfile(profiles);
+      if (profile === null) return void missing++;
+      if (chosen === null || profile.T > chosen.T) chosen = profile;
       const method = jobs[i]?.spec.method.label ?? '';
-      byMethod.set(method, [...(byMethod.get(method) ?? []), longest.nmse]);
+      byMethod.set(method, [...(byMethod.get(method) ?? []), profile.nmse]);
     });
-    const series: ChartSeries[] = [];
-    for (const method of run.methods) {
-      const lists = (byMethod.get(method) ?? []).filter((l) => l.length === T);
-      if (lists.length === 0 || T === 0) continue;
-      series.push({
-        name: method,
-        points: Array.from({ length: T }, (_, k) =>
-          summarisedPoint(
-            k + 1,
-            lists.map((l) => l[k] ?? Number.NaN),
-          ),
-        ),
-      });
-    }
-    if (series.length > 0)
+    const top = chosen as BridgeProfile | null;
+    if (top === null) continue;
+    const series = waypointSeries(run.methods, byMethod, top.T);
+    const label = settingLabel(JSON.parse(key) as Record<string, string>, run.settingColumns);
+    if (series.length > 0) {
       panels.push(
         renderLineChart({
-          title: `${settingLabel(JSON.parse(key) as Record<string, string>, run.settingColumns)}, T = ${T}`,
+          title: `${label}, T = ${top.T}${unitSuffix(top.unit)}`,
           xLabel: 'waypoint index',
-          yLabel: 'bridge NMSE',
+          yLabel: `bridge NMSE${top.source ? ` (${top.source})` : ''}`,
           xScale: 'points',
           series,
         }),
       );
+    }
   }
   const limited = limit(panels, 'settings');
   const note =

@@ -13,6 +13,17 @@ export interface FigureGroup {
   note: string;
 }
 
+/** The unit to plot: environment steps when the rows have them, else whatever they have. */
+export function preferredUnit(rows: readonly MetricSummary[]): string {
+  const units = new Set(rows.map((r) => r.unit));
+  return ['step', '', 'jump'].find((u) => units.has(u)) ?? [...units].sort()[0] ?? '';
+}
+
+/** " (jumps)" for levels counted in geometric jumps, else nothing. */
+export function unitSuffix(unit: string): string {
+  return unit === 'jump' ? ' (jumps)' : '';
+}
+
 /** Most panels per figure group, so a large sweep still gives a readable page. */
 export const MAX_PANELS = 12;
 export const SOURCE_PREFERENCE = ['fitted', 'critic', ''];

@@ -9,61 +9,71 @@ import {
   limit,
   pointOf,
   preferredSource,
+  preferredUnit,
   settingLabel,
+  unitSuffix,
   type FigureGroup,
 } from './figure-helpers.ts';
 
-/** The setting column that holds the representation dimension, if it varies. */
+/** The setting column that holds the representation dimension, if it takes ≥ 2 values. */
 export function dimensionColumn(
   columns: readonly string[],
   summaries: readonly MetricSummary[],
 ): string | null {
   const column = columns.find((c) => c === 'dim' || c.endsWith('.dim'));
   if (column === undefined) return null;
-  const values = new Set(summaries.map((s) => Number(s.setting[column])));
-  return values.size >= 2 && [...values].every((v) => Number.isFinite(v) && v > 0) ? column : null;
+  // Methods without a dimension (the raw observation) have no value here; they are left out.
+  const values = new Set(
+    summaries.map((s) => Number(s.setting[column] || Number.NaN)).filter((v) => v > 0),
+  );
+  return values.size >= 2 ? column : null;
+}
+
+function dimensionPanel(
+  rows: readonly MetricSummary[],
+  metric: string,
+  level: number | string,
+  dim: string,
+  others: readonly string[],
+): string {
+  const series = new Map<string, ChartSeries>();
+  for (const r of rows) {
+    if (r.level !== level) continue;
+    const name =
+      others.length === 0 ? r.method : `${r.method} (${settingLabel(r.setting, others)})`;
+    const s = series.get(name) ?? { name, points: [] };
+    s.points.push(pointOf(Number(r.setting[dim]), r));
+    series.set(name, s);
+  }
+  const unit = unitSuffix(rows[0]?.unit ?? '');
+  const what = metric === 'forecast_nmse' ? `horizon ${level}${unit}` : `T = ${level}${unit}`;
+  const source = rows[0]?.source ?? '';
+  return renderLineChart({
+    title: `${metric}, ${what}${source ? `, ${source}` : ''}`,
+    xLabel: dim,
+    yLabel: metric,
+    xScale: 'log2',
+    series: [...series.values()],
+  });
 }
 
 /** Error against representation dimension: one panel per metric and level, series per method. */
 export function figureByDimension(run: LoadedRun): FigureGroup {
   const title = 'Error against representation dimension';
   const dim = dimensionColumn(run.settingColumns, run.summaries);
-  if (dim === null)
-    return {
-      title,
-      caption: '',
-      panels: [],
-      note: 'Omitted: the representation dimension does not vary in this run.',
-    };
+  if (dim === null) {
+    const note = 'Omitted: the representation dimension does not vary in this run.';
+    return { title, caption: '', panels: [], note };
+  }
   const others = run.settingColumns.filter((c) => c !== dim);
   const panels: string[] = [];
   for (const metric of ['forecast_nmse', 'bridge_nmse']) {
-    const rows = run.summaries.filter((s) => s.metric === metric && s.unit !== 'jump');
-    const source = preferredSource(rows);
-    const levels = [...new Set(rows.filter((r) => r.source === source).map((r) => r.level))];
-    for (const level of levels) {
-      const series = new Map<string, ChartSeries>();
-      for (const r of rows) {
-        if (r.source !== source || r.level !== level) continue;
-        const name =
-          others.length === 0 ? r.method : `${r.method} (${settingLabel(r.setting, others)})`;
-        const s = series.get(name) ?? { name, points: [] };
-        s.points.push(pointOf(Number(r.setting[dim]), r));
-        series.set(name, s);
-      }
-      const what =
-        metric === 'forecast_nmse'
-          ? `horizon ${level}`
-          : `${level} waypoint${level === 1 ? '' : 's'}`;
-      panels.push(
-        renderLineChart({
-          title: `${metric}, ${what}${source ? ` (${source})` : ''}`,
-          xLabel: dim,
-          yLabel: metric,
-          xScale: 'log2',
-          series: [...series.values()],
-        }),
-      );
+    const all = run.summaries.filter((s) => s.metric === metric && Number(s.setting[dim]) > 0);
+    const source = preferredSource(all);
+    const unit = preferredUnit(all.filter((r) => r.source === source));
+    const rows = all.filter((r) => r.source === source && r.unit === unit);
+    for (const level of [...new Set(rows.map((r) => r.level))]) {
+      panels.push(dimensionPanel(rows, metric, level, dim, others));
     }
   }
   const limited = limit(panels, 'panels');
@@ -76,57 +86,69 @@ export function figureByDimension(run: LoadedRun): FigureGroup {
   };
 }
 
+/** The oracle as one dashed series: per horizon, the summary resting on the most seeds. */
+function oracleSeries(rows: readonly MetricSummary[]): ChartSeries | null {
+  const best = new Map<number, MetricSummary>();
+  for (const r of rows) {
+    const level = Number(r.level);
+    const held = best.get(level);
+    if (held === undefined || r.n > held.n) best.set(level, r);
+  }
+  if (best.size === 0) return null;
+  const points = [...best.entries()].map(([level, r]) => pointOf(level, r));
+  return { name: 'oracle (true model)', points, dashed: true };
+}
+
+function horizonPanel(
+  run: LoadedRun,
+  rows: readonly MetricSummary[],
+  key: string,
+  unit: string,
+): string | null {
+  const mine = rows.filter((r) => JSON.stringify(r.setting) === key);
+  const series = new Map<string, ChartSeries>();
+  for (const r of mine) {
+    if (r.metric !== 'forecast_nmse') continue;
+    const s = series.get(r.method) ?? { name: r.method, points: [] };
+    s.points.push(pointOf(Number(r.level), r));
+    series.set(r.method, s);
+  }
+  if (series.size === 0) return null;
+  const oracle = oracleSeries(mine.filter((r) => r.metric === 'forecast_nmse_oracle'));
+  return renderLineChart({
+    title: settingLabel(JSON.parse(key) as Record<string, string>, run.settingColumns),
+    xLabel: `horizon (${unit === 'jump' ? 'jumps' : 'steps'})`,
+    yLabel: `forecast_nmse${mine[0]?.source ? ` (${mine[0].source})` : ''}`,
+    xScale: 'points',
+    series: oracle === null ? [...series.values()] : [...series.values(), oracle],
+  });
+}
+
 /** Forecast error against horizon: one panel per setting, series per method, oracle dashed. */
 export function figureByHorizon(run: LoadedRun): FigureGroup {
   const title = 'Forecast error against horizon';
-  const rows = run.summaries.filter(
+  const numeric = run.summaries.filter((s) => typeof s.level === 'number');
+  const forecasts = numeric.filter((s) => s.metric === 'forecast_nmse');
+  const source = preferredSource(forecasts);
+  const unit = preferredUnit(forecasts.filter((r) => r.source === source));
+  const rows = numeric.filter(
     (s) =>
-      (s.metric === 'forecast_nmse' || s.metric === 'forecast_nmse_oracle') &&
-      s.unit !== 'jump' &&
-      typeof s.level === 'number',
+      s.unit === unit &&
+      ((s.metric === 'forecast_nmse' && s.source === source) ||
+        s.metric === 'forecast_nmse_oracle'),
   );
-  const source = preferredSource(rows.filter((r) => r.metric === 'forecast_nmse'));
-  const settings = [...new Set(rows.map((r) => JSON.stringify(r.setting)))];
   const panels: string[] = [];
-  for (const key of settings) {
-    const series = new Map<string, ChartSeries>();
-    for (const r of rows) {
-      if (JSON.stringify(r.setting) !== key) continue;
-      const oracle = r.metric === 'forecast_nmse_oracle';
-      if (!oracle && r.source !== source) continue;
-      const name = oracle ? `oracle (${r.method})` : r.method;
-      const s = series.get(name) ?? { name, points: [], dashed: oracle };
-      s.points.push(pointOf(Number(r.level), r));
-      series.set(name, s);
-    }
-    // One oracle line is enough when every method's oracle is the same computation.
-    const lines = dedupeOracles([...series.values()]);
-    if (lines.length > 0)
-      panels.push(
-        renderLineChart({
-          title: settingLabel(JSON.parse(key) as Record<string, string>, run.settingColumns),
-          xLabel: 'horizon (steps)',
-          yLabel: `forecast_nmse${source ? ` (${source})` : ''}`,
-          xScale: 'points',
-          series: lines,
-        }),
-      );
+  for (const key of [...new Set(rows.map((r) => JSON.stringify(r.setting)))]) {
+    const panel = horizonPanel(run, rows, key, unit);
+    if (panel !== null) panels.push(panel);
   }
   const limited = limit(panels, 'settings');
   return {
     title,
-    caption: 'Mean over seeds with its 95 % t-interval; dashed: the true model (oracle).',
+    caption:
+      'Mean over seeds with its 95 % t-interval; dashed: the true model (oracle), where known.',
     panels: limited.panels,
     note:
       panels.length === 0 ? 'Omitted: no forecast_nmse rows with numeric horizons.' : limited.note,
   };
-}
-
-function dedupeOracles(series: ChartSeries[]): ChartSeries[] {
-  const methods = series.filter((s) => !(s.dashed ?? false));
-  const oracles = series.filter((s) => s.dashed ?? false);
-  const first = oracles[0];
-  if (first === undefined) return methods;
-  const same = oracles.every((o) => JSON.stringify(o.points) === JSON.stringify(first.points));
-  return same ? [...methods, { ...first, name: 'oracle (true model)' }] : [...methods, ...oracles];
 }
