@@ -111,12 +111,8 @@ function overheadRow(
 
 async function benchOverhead(): Promise<void> {
   let jobs: JobSpec[] = [];
-  overheadRow(
-    `expand ${JOBS} jobs`,
-    await measure(async () => (jobs = await planOf(JOBS))),
-    JOBS,
-    1,
-  );
+  const expand = await loadOverheadExperiment(JOBS);
+  overheadRow(`expand ${JOBS} jobs`, await measure(() => (jobs = expand())), JOBS, 1);
   const dir = join(root, 'overhead');
   const ledger = new RunLedger(dir, { runId: 'bench-overhead' });
   const provenance = {

@@ -6,7 +6,7 @@ import { main } from '../../runner/cli/main.ts';
 import type { PlanFile } from '../../runner/store/result.ts';
 import { readRun } from '../../runner/store/read-run.ts';
 import { bufferIo } from '../helpers/cli-io.ts';
-import { fakeHandlersPath, readJournal, tempRun } from '../helpers/fake-sweep.ts';
+import { fakeHandlersPath, readJournal, tempRun } from '../fixtures/execute/fake-sweep.ts';
 
 const experiment = fileURLToPath(new URL('../fixtures/execute/tiny-sweep.yaml', import.meta.url));
 
@@ -54,5 +54,46 @@ describe('midpath run (end to end, fake handlers)', () => {
     const blocked = bufferIo();
     expect(await main(['run', experiment, '--out', join(dir, 'inside')], blocked)).toBe(2);
     expect(blocked.text()).toContain('store-unwritable');
+  });
+});
+
+describe('midpath run interrupted (a real process and a real SIGINT)', () => {
+  it('drains on Ctrl-C, exits 130, keeps what finished, and the next run does the rest', async () => {
+    const { spawn } = await import('node:child_process');
+    const { dir, journal } = tempRun();
+    mkdirSync(join(dir, '..'), { recursive: true });
+    const bin = fileURLToPath(new URL('../../bin/midpath.mjs', import.meta.url));
+    const env = {
+      ...process.env,
+      MIDPATH_HANDLERS_MODULE: fakeHandlersPath,
+      MIDPATH_FAKE_JOURNAL: journal,
+    };
+    const child = spawn(
+      process.execPath,
+      [bin, 'run', experiment, '--out', dir, '--workers', '1'],
+      { env },
+    );
+    let output = '';
+    let signalled = false;
+    child.stdout.on('data', (chunk: Buffer) => {
+      output += chunk.toString();
+      if (!signalled && /^done /m.test(output)) {
+        signalled = true;
+        child.kill('SIGINT');
+      }
+    });
+    const code = await new Promise<number | null>((done) => child.on('close', (c) => done(c)));
+    expect(code).toBe(130);
+    expect(output).toContain('stopping: no new jobs');
+    expect(output).toMatch(/Interrupted: [1-5] done/);
+    const kept = (await readRun(dir)).results.length;
+    expect(kept).toBeGreaterThanOrEqual(1);
+    expect(kept).toBeLessThan(6);
+
+    const io = bufferIo();
+    io.env = { MIDPATH_HANDLERS_MODULE: fakeHandlersPath };
+    expect(await main(['run', experiment, '--out', dir], io)).toBe(0);
+    expect(io.text()).toContain(`${kept} kept from earlier runs`);
+    expect((await readRun(dir)).results).toHaveLength(6);
   });
 });

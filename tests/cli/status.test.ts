@@ -9,7 +9,7 @@ import type { RunStatus } from '../../runner/store/run-status.ts';
 import { writePlanFile, writeResultAtomic } from '../../runner/store/write-result.ts';
 import { fakeEvalSpec, fakeTrainSpec } from '../fixtures/execute/fake-plan.ts';
 import { bufferIo } from '../helpers/cli-io.ts';
-import { tempRun } from '../helpers/fake-sweep.ts';
+import { tempRun } from '../fixtures/execute/fake-sweep.ts';
 
 function resultOf(
   spec: JobSpec,

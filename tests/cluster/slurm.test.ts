@@ -13,7 +13,7 @@ import { expandPlan } from '../../runner/plan/expand-plan.ts';
 import { readRun } from '../../runner/store/read-run.ts';
 import type { RunStatus } from '../../runner/store/run-status.ts';
 import { bufferIo } from '../helpers/cli-io.ts';
-import { fakeHandlersPath, readJournal, tempRun } from '../helpers/fake-sweep.ts';
+import { fakeHandlersPath, readJournal, tempRun } from '../fixtures/execute/fake-sweep.ts';
 
 const experiment = fileURLToPath(new URL('../fixtures/execute/tiny-sweep.yaml', import.meta.url));
 const clusterUp = (spawnSync('scontrol', ['ping'], { encoding: 'utf8' }).stdout ?? '').includes(

@@ -2,7 +2,7 @@ import { describe, expect, it } from 'vitest';
 import { readRun } from '../../runner/store/read-run.ts';
 import { fakeEvalSpec, fakeTrainSpec } from '../fixtures/execute/fake-plan.ts';
 import type { Behaviour } from '../fixtures/execute/fake-plan.ts';
-import { readJournal, runFakeSweep, tempRun } from '../helpers/fake-sweep.ts';
+import { readJournal, runFakeSweep, tempRun } from '../fixtures/execute/fake-sweep.ts';
 
 describe('failure isolation', () => {
   it('records each way a worker can fail with its reason and completes the rest', async () => {

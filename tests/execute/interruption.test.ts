@@ -9,7 +9,7 @@ import type { JobSpec } from '../../runner/plan/job-spec.ts';
 import { readRun } from '../../runner/store/read-run.ts';
 import { rebuildIndex } from '../../runner/store/run-index.ts';
 import { fakePlan } from '../fixtures/execute/fake-plan.ts';
-import { readJournal, runFakeSweep, tempRun } from '../helpers/fake-sweep.ts';
+import { readJournal, runFakeSweep, tempRun } from '../fixtures/execute/fake-sweep.ts';
 
 const driver = fileURLToPath(new URL('../fixtures/execute/drive-sweep.ts', import.meta.url));
 

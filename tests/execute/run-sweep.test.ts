@@ -3,7 +3,7 @@ import { join } from 'node:path';
 import { describe, expect, it } from 'vitest';
 import { readRun } from '../../runner/store/read-run.ts';
 import { fakePlan } from '../fixtures/execute/fake-plan.ts';
-import { readJournal, runFakeSweep, tempRun } from '../helpers/fake-sweep.ts';
+import { readJournal, runFakeSweep, tempRun } from '../fixtures/execute/fake-sweep.ts';
 
 describe('runSweep with fake handlers', () => {
   it('runs every job once in workers, evaluations after their train job, then resumes without rerunning', async () => {

@@ -10,7 +10,7 @@ import {
   tryLock,
   unlock,
 } from '../../runner/store/job-lock.ts';
-import { tempRun } from '../helpers/fake-sweep.ts';
+import { tempRun } from '../fixtures/execute/fake-sweep.ts';
 
 function owner(
   runId: string,

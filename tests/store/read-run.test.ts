@@ -5,7 +5,7 @@ import { readRun } from '../../runner/store/read-run.ts';
 import type { JobResult } from '../../runner/store/result.ts';
 import { writePlanFile, writeResultAtomic } from '../../runner/store/write-result.ts';
 import { fakeEvalSpec, fakeTrainSpec } from '../fixtures/execute/fake-plan.ts';
-import { tempRun } from '../helpers/fake-sweep.ts';
+import { tempRun } from '../fixtures/execute/fake-sweep.ts';
 
 function resultOf(spec: JobResult['spec'], value: number): JobResult {
   return {

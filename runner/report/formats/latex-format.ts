@@ -97,7 +97,7 @@ function renderBlock(table: TidyTable, block: Block): string {
   }
   const source = block.source ? ` (${escapeLatex(block.source)} transition)` : '';
   return [
-    '\\begin{table}[ht]',
+    '\\begin{table}[htbp]',
     '\\centering',
     `\\caption{${escapeLatex(block.metric)}${source}: mean $\\pm$ half-width of the 95\\,\\% t-interval over seeds. Bold: best in its column within a setting, and those whose intervals overlap it.}`,
     `\\label{${labelOf(block)}}`,
@@ -112,11 +112,19 @@ function renderBlock(table: TidyTable, block: Block): string {
   ].join('\n');
 }
 
+/** Tables between two \\clearpage commands in a whole-file export. */
+const FLUSH_EVERY = 10;
+
 export const latexFormat: TableFormat = {
   name: 'latex',
   render(table: TidyTable): string {
     const parts = ['% Tables written by midpath; they need \\usepackage{booktabs}.'];
-    for (const block of blocksOf(table.rows)) parts.push(renderBlock(table, block));
+    blocksOf(table.rows).forEach((block, i) => {
+      // LaTeX holds at most 18 unplaced floats; a \clearpage every 10 tables lets the whole
+      // file be \input. Pasting one table leaves it behind.
+      if (i > 0 && i % FLUSH_EVERY === 0) parts.push('\\clearpage % flush pending floats');
+      parts.push(renderBlock(table, block));
+    });
     return `${parts.join('\n\n')}\n`;
   },
 };

@@ -28,8 +28,14 @@ export function unitSuffix(unit: string): string {
 export const MAX_PANELS = 12;
 export const SOURCE_PREFERENCE = ['fitted', 'critic', ''];
 
+/** "dim = 8, data = rover-maze"; columns a job does not set (a method without dim) are left out. */
 export function settingLabel(setting: Record<string, string>, columns: readonly string[]): string {
-  return columns.map((c) => `${c} = ${setting[c] ?? ''}`).join(', ') || 'all jobs';
+  return (
+    columns
+      .filter((c) => (setting[c] ?? '') !== '')
+      .map((c) => `${c} = ${setting[c] ?? ''}`)
+      .join(', ') || 'all jobs'
+  );
 }
 
 export function preferredSource(rows: readonly MetricSummary[]): string | null {

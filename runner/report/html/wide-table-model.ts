@@ -79,6 +79,48 @@ export function cellOf(
   };
 }
 
+interface Line {
+  setting: Record<string, string>;
+  method: string;
+  source: string;
+  oracle: boolean;
+  /** First-seen order, the last sort key. */
+  order: number;
+  /** Level column key → summary. */
+  cells: Map<string, MetricSummary>;
+}
+
+/** Rows of one table in display order: by setting, then source (oracle last), then first seen. */
+function collectLines(rows: readonly MetricSummary[], metric: string): Line[] {
+  const settingOrder: string[] = [];
+  const lines = new Map<string, Line>();
+  for (const row of rows) {
+    const settingKey = JSON.stringify(row.setting);
+    if (!settingOrder.includes(settingKey)) settingOrder.push(settingKey);
+    const method = row.metric === `${metric}_oracle` ? 'oracle' : row.method;
+    const key = JSON.stringify([settingKey, row.source, method]);
+    const line = lines.get(key) ?? {
+      setting: row.setting,
+      method,
+      source: row.source,
+      oracle: isOracle(row, metric),
+      order: lines.size,
+      cells: new Map<string, MetricSummary>(),
+    };
+    line.cells.set(levelKeyOf(row), row);
+    lines.set(key, line);
+  }
+  const rank = (l: Line): [number, number] => [
+    settingOrder.indexOf(JSON.stringify(l.setting)),
+    l.oracle ? 9 : (SOURCE_RANK[l.source] ?? 3),
+  ];
+  return [...lines.values()].sort((a, b) => {
+    const [a0, a1] = rank(a);
+    const [b0, b1] = rank(b);
+    return a0 - b0 || a1 - b1 || a.order - b.order;
+  });
+}
+
 /** One wide table for `metric` (plus its `_oracle` companion rows). */
 export function buildWideTable(
   summaries: readonly MetricSummary[],
@@ -88,55 +130,13 @@ export function buildWideTable(
 ): WideTable {
   const rows = summaries.filter((s) => s.metric === metric || s.metric === `${metric}_oracle`);
   const columns = levelColumnsOf(rows);
-  const settingOrder: string[] = [];
-  const lines = new Map<
-    string,
-    {
-      setting: Record<string, string>;
-      method: string;
-      source: string;
-      oracle: boolean;
-      order: number;
-      cells: Map<string, MetricSummary>;
-    }
-  >();
-  for (const row of rows) {
-    const settingKey = JSON.stringify(row.setting);
-    if (!settingOrder.includes(settingKey)) settingOrder.push(settingKey);
-    const oracle = isOracle(row, metric);
-    const method = row.metric === `${metric}_oracle` ? 'oracle' : row.method;
-    const key = JSON.stringify([settingKey, row.source, method]);
-    const line = lines.get(key) ?? {
-      setting: row.setting,
-      method,
-      source: row.source,
-      oracle,
-      order: lines.size,
-      cells: new Map(),
-    };
-    line.cells.set(levelKeyOf(row), row);
-    lines.set(key, line);
-  }
-  const rank = (l: {
-    setting: Record<string, string>;
-    source: string;
-    oracle: boolean;
-  }): number[] => [
-    settingOrder.indexOf(JSON.stringify(l.setting)),
-    l.oracle ? 9 : (SOURCE_RANK[l.source] ?? 3),
-  ];
-  const ordered = [...lines.values()].sort((a, b) => {
-    const [a0 = 0, a1 = 0] = rank(a);
-    const [b0 = 0, b1 = 0] = rank(b);
-    return a0 - b0 || a1 - b1 || a.order - b.order;
-  });
   let previous = '';
   return {
     metric,
     threshold: readDiagnostic(metric, 0)?.threshold ?? '',
     settingColumns,
     columns: columns.map((c) => c.label),
-    rows: ordered.map((line) => {
+    rows: collectLines(rows, metric).map((line) => {
       const settingKey = JSON.stringify(line.setting);
       const newSetting = previous !== '' && settingKey !== previous;
       previous = settingKey;

@@ -35,9 +35,9 @@ function ramp(t: number): string {
   return `#${channel(0)}${channel(1)}${channel(2)}`;
 }
 
-/** Shortens a title line to what fits the panel (about 36 characters at 10 px). */
+/** Shortens a title line to what fits the panel (about 42 characters at 10 px). */
 function fit(text: string): string {
-  return text.length <= 36 ? text : `${text.slice(0, 35)}…`;
+  return text.length <= 42 ? text : `${text.slice(0, 41)}…`;
 }
 
 /** Renders the scatter; points with a non-finite coordinate are skipped. */
@@ -55,8 +55,8 @@ export function renderScatter(spec: ScatterSpec): string {
   const parts = [
     `<svg xmlns="http://www.w3.org/2000/svg" class="chart scatter" viewBox="0 0 ${SIZE} ${SIZE}" width="${SIZE}" height="${SIZE}" role="img" font-family="inherit" font-size="10">`,
     `<title>${escapeHtml(`${spec.title}, ${spec.subtitle}`)}</title>`,
-    svgText(LEFT, 12, fit(spec.title), { class: 'chart-title' }),
-    svgText(LEFT, 25, fit(spec.subtitle), { class: 'axis-label' }),
+    svgText(4, 12, fit(spec.title), { class: 'chart-title' }),
+    svgText(4, 25, fit(spec.subtitle), { class: 'axis-label' }),
     `<rect x="${LEFT}" y="${TOP}" width="${RIGHT - LEFT}" height="${BOTTOM - TOP}" fill="none" stroke="#bbb" stroke-width="0.6"/>`,
   ];
   const xLabels = tickLabels(x.ticks);
