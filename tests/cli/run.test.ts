@@ -39,6 +39,18 @@ describe('midpath run (end to end, fake handlers)', () => {
       expect(await main(['run', experiment, '--out', 'out'], again)).toBe(0);
       expect(again.text()).toContain('6 kept from earlier runs');
       expect([...readJournal(journal).values()]).toEqual(Array(6).fill(1));
+
+      // Changing only evaluation settings reruns only the evaluations, reusing the encoders.
+      const evalOnly = bufferIo(join(dir, '..'));
+      evalOnly.env = io.env;
+      expect(
+        await main(['run', experiment, '--out', 'out', '--set', 'eval.queries=7'], evalOnly),
+      ).toBe(0);
+      expect(evalOnly.text()).toContain('3 done, 0 failed, 0 diverged, 3 kept from earlier runs');
+      const attempts = readJournal(journal);
+      expect(attempts.size).toBe(9);
+      const trainIds = plan.jobs.filter((j) => j.kind === 'train').map((j) => j.id);
+      expect(trainIds.map((id) => attempts.get(id))).toEqual([1, 1, 1]);
     } finally {
       delete process.env.MIDPATH_FAKE_JOURNAL;
     }
