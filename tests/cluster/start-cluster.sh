@@ -19,15 +19,18 @@ fi
 chown -R munge:munge /etc/munge /run/munge /var/lib/munge /var/log/munge
 chmod 0700 /etc/munge
 chmod 0400 /etc/munge/munge.key
-if ! pgrep -u munge -x munged >/dev/null 2>&1; then
+if ! munge -n 2>/dev/null | unmunge >/dev/null 2>&1; then
   runuser -u munge -- /usr/sbin/munged
 fi
 
 mkdir -p /etc/slurm "$state/ctld" "$state/d"
 sed -e "s|@STATE@|$state|g" -e "s|@CPUS@|$(nproc)|g" "$here/slurm.conf.in" > /etc/slurm/slurm.conf
 
-pgrep -x slurmctld >/dev/null 2>&1 || slurmctld
-pgrep -x slurmd >/dev/null 2>&1 || slurmd -N localhost
+# Decide by asking the daemons, not by process names: a container whose init does not reap
+# leaves zombie processes that pgrep still lists.
+alive() { [ -s "$1" ] && [ -d "/proc/$(cat "$1")" ] && ! grep -q '^State:.*Z' "/proc/$(cat "$1")/status" 2>/dev/null; }
+scontrol ping 2>/dev/null | grep -q 'is UP' || slurmctld
+alive "$state/slurmd.pid" || slurmd -N localhost
 
 i=0
 until sinfo -h -o %T 2>/dev/null | grep -Eq 'idle|mix|alloc'; do

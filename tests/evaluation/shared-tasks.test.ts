@@ -56,11 +56,38 @@ describe('every method in one experiment sees the same evaluation tasks', () => 
       dataset,
       evalSpec(c, 7, 'random-linear'),
     );
-    // The oracle rows depend on the tasks and the data only, never on the representation.
-    const oracle = (rows: typeof first.metrics): number[] =>
-      rows.filter((r) => r.metric.endsWith('_oracle')).map((r) => r.value);
-    expect(oracle(first.metrics).length).toBe(4);
+    const third = await evaluateRepresentation(
+      identityRepresentation(3, { a: 1.4, c: 1 }),
+      dataset,
+      evalSpec(c, 3, 'critic-identity'),
+    );
+    // The oracle rows depend on the tasks and the data only, never on the representation,
+    // the training seed or whether the method has a critic: step rows at eval.horizons and
+    // eval.waypoints, jump rows (realised step gaps of the shared jump tasks) at eval.jumps
+    // and eval.waypoints.
+    const oracle = (rows: typeof first.metrics): string[] =>
+      rows
+        .filter((r) => r.metric.endsWith('_oracle'))
+        .map((r) => `${r.metric}@${r.level}:${r.unit}:${r.source}:${r.n}=${r.value}`);
+    const keys = oracle(first.metrics).map((k) => k.split('=')[0]);
+    expect(keys).toEqual([
+      'forecast_nmse_oracle@1:step:true:60',
+      'forecast_nmse_oracle@3:step:true:60',
+      'forecast_nmse_oracle@1:jump:true:60',
+      'forecast_nmse_oracle@2:jump:true:60',
+      'bridge_nmse_oracle@1:step:true:60',
+      'bridge_nmse_oracle@3:step:true:180',
+      'bridge_nmse_oracle@1:jump:true:60',
+      'bridge_nmse_oracle@3:jump:true:180',
+    ]);
     expect(oracle(second.metrics)).toEqual(oracle(first.metrics));
+    expect(oracle(third.metrics)).toEqual(oracle(first.metrics));
+    // And the critic's learned jump rows answer the very tasks of the jump oracle rows.
+    const criticBridge = third.metrics.find(
+      (r) => r.metric === 'bridge_nmse' && r.source === 'critic' && r.level === 3,
+    );
+    expect(criticBridge?.unit).toBe('jump');
+    expect(criticBridge?.n).toBe(180);
   });
 
   it('redraws chains that run past the episode end instead of clipping them', () => {

@@ -5,7 +5,8 @@
  * "midpoint" and "copy the nearer endpoint" on the same tasks, retrieval of the truth among
  * the same waypoint of every task (top-1, mean reciprocal rank), state-space error through
  * decoding and, with a known model, the oracle: the optimal smoother (Rauch, Tung & Striebel
- * 1965) on the true latent state with the true F, Q.
+ * 1965) on the true latent state with the true F, Q, on the step tasks and (jump-oracle.ts) on
+ * the jump tasks with their realised step gaps.
  */
 import { prepareBridge, trueTransition } from '../../inference/index.ts';
 import { fromArray } from '../../numeric/matrix.ts';
@@ -20,6 +21,7 @@ import {
   type SuiteOutput,
 } from '../context.ts';
 import { normalisedError, poolRows, traceCovariance } from '../moments.ts';
+import { bridgeJumpOracle } from './jump-oracle.ts';
 import { retrievalRanks } from './retrieval.ts';
 
 /** Per-waypoint errors of one (source, T), for plots. */
@@ -62,6 +64,14 @@ export function runBridgeSuite(context: EvalContext): SuiteOutput {
   const oracle = bridgeOracle(context);
   metrics.push(...oracle.metrics);
   profiles.push(...oracle.profiles);
+  // The same oracle on the jump tasks the per-jump sources answer (realised step gaps).
+  for (const { T, n, nmse } of bridgeJumpOracle(context)) {
+    const value = nmse.reduce((a, b) => a + b, 0) / T;
+    metrics.push(
+      metricRow('bridge', 'bridge_nmse_oracle', T, 'true', value, { n: n * T, unit: 'jump' }),
+    );
+    profiles.push({ source: 'oracle', unit: 'jump', T, n, nmse, midpoint: [], nearer: [] });
+  }
   return { metrics, artifacts: { profiles } };
 }
 

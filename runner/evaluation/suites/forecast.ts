@@ -3,7 +3,8 @@
  * error NMSE = ‖μ - ψ_true‖² / tr Cov(ψ) of the n-transition forecast mean, the persistence
  * baseline (ψ_true ≈ ψ₀) on the same tasks, skill against both, and the error in state space
  * through the probe and through nearest-neighbour decoding. On datasets with a known model,
- * the oracle: the true model forecasting the true latent state (steps only).
+ * the oracle: the true model forecasting the true latent state, at step horizons and (through
+ * jump-oracle.ts) on the jump tasks with their realised step counts.
  */
 import { forecastBatch, trueTransition } from '../../inference/index.ts';
 import { fromArray } from '../../numeric/matrix.ts';
@@ -18,6 +19,7 @@ import {
   type SuiteOutput,
 } from '../context.ts';
 import { normalisedError, poolRows, traceCovariance } from '../moments.ts';
+import { forecastJumpOracleRows } from './jump-oracle.ts';
 
 /** Horizons evaluated for a source: steps for step models, jumps for jump models. */
 export function horizonsFor(context: EvalContext, source: SourceModel): number[] {
@@ -48,7 +50,7 @@ export function runForecastSuite(context: EvalContext): SuiteOutput {
       }),
     );
   }
-  metrics.push(...forecastOracleRows(context));
+  metrics.push(...forecastOracleRows(context), ...forecastJumpOracleRows(context));
   return { metrics, artifacts: { errors } };
 }
 
