@@ -90,6 +90,12 @@ export interface StepEngine {
   init(params: Float32Array[]): void;
   /** One optimiser step on B pairs; batchX and batchY are [B, obsDim]. */
   step(batchX: Float32Array, batchY: Float32Array, batchSize: number): StepStats;
+  /**
+   * The same step computed off the JavaScript event loop (the native engine runs it on the
+   * libuv thread pool), so progress, time limits and Ctrl-C keep working during training.
+   * The loop prefers it when present; results equal `step`.
+   */
+  stepAsync?(batchX: Float32Array, batchY: Float32Array, batchSize: number): Promise<StepStats>;
   /** The same quantities without updating anything (validation). */
   evaluate(batchX: Float32Array, batchY: Float32Array, batchSize: number): StepStats;
   /** Current parameters in the layout above (fresh copies). */

@@ -76,7 +76,9 @@ export async function runTrainingLoop(
     }
     const started = performance.now();
     const batch = samplers.train.sample(batchRng, train.batch);
-    const stats = engine.step(batch.x, batch.y, batch.size);
+    const stats = engine.stepAsync
+      ? await engine.stepAsync(batch.x, batch.y, batch.size)
+      : engine.step(batch.x, batch.y, batch.size);
     busy += performance.now() - started;
     if (!Number.isFinite(stats.loss) || !Number.isFinite(stats.gradNorm)) {
       const reason = `step ${step}: ${describeBlowUp(stats)}; last finite loss ${lastFinite}`;
