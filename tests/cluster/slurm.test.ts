@@ -41,6 +41,14 @@ async function metricsOf(dir: string): Promise<Map<string, number[]>> {
   return new Map(results.map((r) => [r.id, r.metrics.map((m) => m.value)]));
 }
 
+// CI sets MIDPATH_REQUIRE_CLUSTER=1 after starting the cluster: a cluster that did not come
+// up must fail the run there, not skip silently.
+describe.runIf(process.env.MIDPATH_REQUIRE_CLUSTER === '1')('SLURM cluster required by CI', () => {
+  it('answers scontrol ping (started by tests/cluster/start-cluster.sh)', () => {
+    expect(clusterUp).toBe(true);
+  });
+});
+
 describe.skipIf(!clusterUp)('SLURM engine on a one-node cluster', () => {
   const saved = { ...process.env };
   afterAll(() => {
