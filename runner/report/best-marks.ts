@@ -3,6 +3,7 @@
  * level across methods — and the rows tied with it: rows whose 95 % interval overlaps the
  * best row's interval (Cumming and Finch, 2005, note that overlap is a conservative reading;
  * we use it as a plain, visible rule). Without intervals (one seed) only equal means tie.
+ * Oracle rows are never marked.
  */
 import { summaryKey, type MetricSummary } from './aggregate.ts';
 import { badnessOf, metricDirection } from './metric-direction.ts';
@@ -39,7 +40,10 @@ export function markBest(summaries: readonly MetricSummary[]): Map<string, BestM
   }
   const marks = new Map<string, BestMark>();
   for (const list of groups.values()) {
+    // Oracle rows (`*_oracle`) are the true model, the same for every method by
+    // construction: a reference, never ranked.
     const ranged = list
+      .filter((s) => !s.metric.endsWith('_oracle'))
       .map((s) => ({ s, r: badnessRange(s) }))
       .filter((x): x is { s: MetricSummary; r: NonNullable<typeof x.r> } => x.r !== null);
     if (ranged.length < 2) continue;
