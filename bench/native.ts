@@ -259,6 +259,8 @@ function printTable(
 interface DemoTotals {
   sweepSeconds: number;
   contrastiveSeconds: number;
+  /** Σ seconds inside the training loops (steps / steps per second). */
+  loopSeconds: number;
   jobs: number;
   engines: string[];
 }
@@ -288,16 +290,24 @@ function runDemo(engine: 'tfjs' | 'native'): DemoTotals {
   const sweepSeconds = (performance.now() - t0) / 1000;
   if (run.status !== 0)
     throw new Error(`demo run with ${engine} failed: ${run.stderr.slice(-500)}`);
-  const totals: DemoTotals = { sweepSeconds, contrastiveSeconds: 0, jobs: 0, engines: [] };
+  const totals: DemoTotals = {
+    sweepSeconds,
+    contrastiveSeconds: 0,
+    loopSeconds: 0,
+    jobs: 0,
+    engines: [],
+  };
   for (const id of readdirSync(join(out, 'jobs'))) {
     const result = JSON.parse(readFileSync(join(out, 'jobs', id, 'result.json'), 'utf8')) as {
       kind: string;
       spec: { method?: { name: string } };
-      info: { engine?: string; kernel?: string };
+      info: { engine?: string; kernel?: string; steps?: number; stepsPerSecond?: number };
       provenance: { wallSeconds: number };
     };
     if (result.kind !== 'train' || result.spec.method?.name !== 'contrastive') continue;
     totals.contrastiveSeconds += result.provenance.wallSeconds;
+    const { steps = 0, stepsPerSecond = 0 } = result.info;
+    if (stepsPerSecond > 0) totals.loopSeconds += steps / stepsPerSecond;
     totals.jobs += 1;
     const label = `${result.info.engine ?? '?'} ${result.info.kernel ?? ''}`.trim();
     if (!totals.engines.includes(label)) totals.engines.push(label);
@@ -305,24 +315,43 @@ function runDemo(engine: 'tfjs' | 'native'): DemoTotals {
   return totals;
 }
 
+/** Median wall seconds of starting node with the tsx loader on an empty script (a worker's floor). */
+function measureNodeStart(times = 5): number {
+  const seconds: number[] = [];
+  for (let i = 0; i < times; i++) {
+    const t0 = performance.now();
+    spawnSync(process.execPath, ['--import', 'tsx', '-e', '0'], { encoding: 'utf8' });
+    seconds.push((performance.now() - t0) / 1000);
+  }
+  seconds.sort((a, b) => a - b);
+  return seconds[Math.floor(seconds.length / 2)]!;
+}
+
 function benchDemo(): void {
   const tfjs = runDemo('tfjs');
   const native = runDemo('native');
+  const start = measureNodeStart();
   console.log(
     'demo sweep (configs/demo.yaml), 2 workers; contrastive train jobs summed over their wall time',
   );
-  console.log('| engine | train jobs | Σ train-job seconds | whole sweep seconds |');
-  console.log('|---|---:|---:|---:|');
+  console.log(
+    '| engine | train jobs | Σ train-job seconds | Σ loop seconds | mean job outside loop | whole sweep seconds |',
+  );
+  console.log('|---|---:|---:|---:|---:|---:|');
   for (const [name, t] of [
     ['tfjs', tfjs],
     ['native', native],
   ] as const) {
+    const outside = (t.contrastiveSeconds - t.loopSeconds) / Math.max(1, t.jobs);
     console.log(
-      `| ${name} (${t.engines.join(', ')}) | ${t.jobs} | ${t.contrastiveSeconds.toFixed(1)} | ${t.sweepSeconds.toFixed(1)} |`,
+      `| ${name} (${t.engines.join(', ')}) | ${t.jobs} | ${t.contrastiveSeconds.toFixed(1)} | ${t.loopSeconds.toFixed(1)} | ${outside.toFixed(2)} s | ${t.sweepSeconds.toFixed(1)} |`,
     );
   }
   console.log(
     `training jobs: native is ${(tfjs.contrastiveSeconds / native.contrastiveSeconds).toFixed(1)}× faster; whole sweep ${(tfjs.sweepSeconds / native.sweepSeconds).toFixed(2)}×`,
+  );
+  console.log(
+    `node + tsx start-up on an empty script (a worker's floor, median of 5): ${start.toFixed(2)} s`,
   );
 }
 

@@ -3,13 +3,14 @@
  * `restoreRepresentation`. runner/execute/jobs/representation-files.ts writes and reads it;
  * a representation built here after training and one restored from disk run the same code,
  * so they encode identically.
+ *
+ * Linear and MLP encoders are evaluated by a plain Float32Array forward pass
+ * (encoders/dense-forward.ts); only conv and plugin encoders load TF.js, through a dynamic
+ * import of tf-restore.ts, so jobs that need no TF.js never pay for loading it.
  */
-import * as tf from '@tensorflow/tfjs';
 import type { CriticKind, EncoderConfig } from '../config/types.ts';
-import { selectBackend } from '../encoders/backend.ts';
-import { buildEncoder } from '../encoders/index.ts';
+import { createDenseForward } from '../encoders/dense-forward.ts';
 import { identity, type Mat } from '../numeric/matrix.ts';
-import { createRng } from '../numeric/random.ts';
 import type { Representation } from './representation.ts';
 import { TrainingError } from './training-error.ts';
 
@@ -98,37 +99,54 @@ function encodeLookup(s: SerialisedRepresentation): Representation['encode'] {
   };
 }
 
+/** The encoder's variables p0, p1, … in order (as many as were saved). */
+function encoderArrays(s: SerialisedRepresentation): Float32Array[] {
+  const out: Float32Array[] = [];
+  for (let i = 0; s.arrays[`p${i}`] !== undefined; i++) out.push(s.arrays[`p${i}`]!.data);
+  return out;
+}
+
+/** ψ of a linear/MLP encoder without TF.js; a layout mismatch is a representation-file error. */
+function denseEncode(
+  s: SerialisedRepresentation,
+  encoder: EncoderConfig,
+): (obs: Float32Array, count: number) => Float32Array {
+  try {
+    return createDenseForward(encoder, s.obsDim, s.dim, encoderArrays(s));
+  } catch (error) {
+    throw new TrainingError('representation-file', (error as Error).message, s.label);
+  }
+}
+
+/** ψ of a conv or plugin encoder, rebuilt in TF.js (imported only here). */
+async function tfEncode(
+  s: SerialisedRepresentation,
+  model: Extract<SerialisedModel, { kind: 'encoder' }>,
+): Promise<(obs: Float32Array, count: number) => Float32Array> {
+  const { restoreTfEncoder } = await import('./tf-restore.ts');
+  return restoreTfEncoder({
+    encoder: model.encoder,
+    obsDim: s.obsDim,
+    dim: s.dim,
+    seed: model.seed,
+    variables: encoderArrays(s),
+    label: s.label,
+    ...(model.imageShape === undefined ? {} : { imageShape: model.imageShape }),
+    ...(model.baseDir === undefined ? {} : { baseDir: model.baseDir }),
+  });
+}
+
 async function encodeWithEncoder(
   s: SerialisedRepresentation,
   model: Extract<SerialisedModel, { kind: 'encoder' }>,
 ): Promise<Representation['encode']> {
-  await selectBackend();
-  const encoder = await buildEncoder(
-    {
-      config: model.encoder,
-      obsDim: s.obsDim,
-      dim: s.dim,
-      seed: model.seed,
-      ...(model.imageShape === undefined ? {} : { imageShape: model.imageShape }),
-      ...(model.baseDir === undefined ? {} : { baseDir: model.baseDir }),
-    },
-    createRng(model.seed).fork('init'),
-  );
-  encoder.variables.forEach((v, i) => {
-    const p = need(s, `p${i}`);
-    tf.tidy(() => v.assign(tf.tensor(p.data, v.shape)));
-  });
+  const kind = model.encoder.kind;
+  const psi =
+    kind === 'linear' || kind === 'mlp' ? denseEncode(s, model.encoder) : await tfEncode(s, model);
   const outMean = s.arrays.outMean?.data;
   const outScale = s.arrays.outScale?.data;
-  const chunk = 4096;
   return (obs, count) => {
-    const out = new Float32Array(count * s.dim);
-    for (let start = 0; start < count; start += chunk) {
-      const n = Math.min(chunk, count - start);
-      const rows = obs.subarray(start * s.obsDim, (start + n) * s.obsDim);
-      const z = tf.tidy(() => encoder.apply(tf.tensor2d(rows, [n, s.obsDim])).dataSync());
-      out.set(z, start * s.dim);
-    }
+    const out = psi(obs, count);
     if (outMean !== undefined && outScale !== undefined) {
       for (let i = 0; i < out.length; i++)
         out[i] = (out[i]! - outMean[i % s.dim]!) * outScale[i % s.dim]!;

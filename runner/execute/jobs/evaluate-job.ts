@@ -1,11 +1,12 @@
 /**
  * The evaluate job: load the dataset and the representation its train job saved, run the
  * evaluation suites, write their plot data as JSON artifacts and return the metrics.
+ * The evaluation code is imported when the handler runs, so a worker that runs a train job
+ * (jobs/index.ts imports both handlers) does not load it.
  */
 import { writeFile } from 'node:fs/promises';
 import { join } from 'node:path';
 import { loadDataset } from '../../data/load-dataset.ts';
-import { evaluateRepresentation } from '../../evaluation/evaluate.ts';
 import type { EvalConfig } from '../../config/types.ts';
 import type { EvalJobSpec } from '../../plan/job-spec.ts';
 import type { JobHandler } from '../job-handler.ts';
@@ -34,6 +35,7 @@ export const evaluateJob: JobHandler<EvalJobSpec> = async (spec, ctx) => {
   const rep = await loadRepresentation(ctx.artifactsOf(spec.trainId));
   ctx.log(`representation ${rep.method}, dim ${rep.dim}${rep.critic ? ', with critic' : ''}`);
   if (ctx.signal.aborted) throw new Error('evaluation stopped before it began');
+  const { evaluateRepresentation } = await import('../../evaluation/evaluate.ts');
   const { metrics, artifacts } = await evaluateRepresentation(rep, dataset, spec);
   const files: string[] = [];
   for (const [name, value] of Object.entries(artifacts)) {

@@ -2,13 +2,15 @@
  * The train job: load the dataset, fit the method (train an encoder or fit a baseline), save
  * its artifacts (representation, curves.json, spec.json) and report the training metrics.
  * A NaN or infinite loss ends the job as 'diverged' with its reason; it is never a crash.
+ * The training code is imported when the handler runs, so a worker that runs an evaluate job
+ * (jobs/index.ts imports both handlers) does not load it.
  */
 import { readFile, writeFile } from 'node:fs/promises';
 import { join } from 'node:path';
 import { loadDataset } from '../../data/load-dataset.ts';
 import type { MetricRow } from '../../evaluation/metric.ts';
 import type { TrainJobSpec } from '../../plan/job-spec.ts';
-import { fitMethod, type FitResult } from '../../training/fit-method.ts';
+import type { FitResult } from '../../training/fit-method.ts';
 import type { JobHandler } from '../job-handler.ts';
 import { saveRepresentation } from './representation-files.ts';
 
@@ -45,6 +47,7 @@ export const trainJob: JobHandler<TrainJobSpec> = async (spec, ctx) => {
   ctx.log(
     `${spec.method.label}: ${dataset.name}, ${dataset.train.length} training episodes, obsDim ${dataset.obsDim}, d ${spec.dim}`,
   );
+  const { fitMethod } = await import('../../training/fit-method.ts');
   const result = await fitMethod(spec.method, dataset, spec, {
     log: (line) => ctx.log(line),
     signal: ctx.signal,

@@ -1,8 +1,8 @@
 /**
  * The contrastive method: temporal InfoNCE with a Gaussian-marginal regulariser (MATH.md §1),
- * trained by the engine train.engine selects (runner/training/engine.ts).
+ * trained by the engine train.engine selects (runner/training/engine.ts). TF.js is loaded
+ * only when the tfjs engine runs (engines.ts, tfBackendInfo), never for the native engine.
  */
-import { selectBackend } from '../../encoders/backend.ts';
 import { initDenseParams } from '../../encoders/dense-layout.ts';
 import { createRng } from '../../numeric/random.ts';
 import {
@@ -75,10 +75,17 @@ export function serialiseTrained(
   };
 }
 
+/** The TF.js backend of a tfjs engine (already selected by it), for the result's info. */
+async function tfBackendInfo(engine: StepEngine): Promise<Record<string, unknown>> {
+  if (engine.name !== 'tfjs') return {};
+  const { selectBackend } = await import('../../encoders/backend.ts');
+  const backend = await selectBackend();
+  return { tfBackend: backend.name, simd: backend.simd };
+}
+
 /** The 'contrastive' method. */
 export const fitContrastive: MethodFit = async (context): Promise<FitResult> => {
   const { dataset, spec, hooks } = context;
-  const backend = await selectBackend();
   const options = engineOptions(context);
   const engine = await openEngine(context, options);
   try {
@@ -113,8 +120,7 @@ export const fitContrastive: MethodFit = async (context): Promise<FitResult> => 
       representation: await restoreRepresentation(serialised),
       curves: loop.curves,
       info: {
-        tfBackend: backend.name,
-        simd: backend.simd,
+        ...(await tfBackendInfo(engine)),
         engine: engine.name,
         kernel: engine.kernel ?? engine.name,
         threads: engine.threads,

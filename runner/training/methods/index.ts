@@ -1,7 +1,10 @@
-/** The method map: name → fit. Adding a method is one file here and one entry below. */
+/**
+ * The method map: name → fit. Adding a method is one file here and one entry below.
+ * The autoencoder is imported when first fitted: it trains with TF.js, and loading TF.js
+ * (≈ 2 s) should not tax the closed-form baselines or the native contrastive engine.
+ */
 import type { MethodName } from '../../config/types.ts';
 import type { MethodFit } from '../method.ts';
-import { fitAutoencoder } from './autoencoder.ts';
 import { fitContrastive } from './contrastive.ts';
 import { fitPca } from './pca.ts';
 import { fitPrecomputed } from './precomputed.ts';
@@ -16,6 +19,6 @@ export const methods: Record<MethodName, MethodFit> = {
   random: fitRandom,
   raw: fitRaw,
   sfa: fitSfa,
-  autoencoder: fitAutoencoder,
+  autoencoder: async (context) => (await import('./autoencoder.ts')).fitAutoencoder(context),
   precomputed: fitPrecomputed,
 };
