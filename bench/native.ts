@@ -27,43 +27,12 @@ import { createRng } from '../runner/numeric/random.ts';
 import { createNativeEngine } from '../runner/training/native-engine.ts';
 import { loadNativeAddon, type NativeAddon } from '../runner/training/native-loader.ts';
 import { createTfjsEngine } from '../runner/training/tfjs-engine.ts';
+import { BATCH, DIM, OBS, WIDTHS, referenceOptions, referenceTrain } from './reference-step.ts';
 
 const ROUNDS = Number(process.env.ROUNDS ?? 3);
 const STEPS = Number(process.env.STEPS ?? 200);
 const TFJS_STEPS = Number(process.env.TFJS_STEPS ?? 20);
-const BATCH = 256;
-const OBS = 64;
-const WIDTHS = [256, 256];
-const DIM = 16;
-
-const options: EngineOptions = {
-  encoder: {
-    kind: 'mlp',
-    widths: WIDTHS,
-    activation: 'relu',
-    layerNorm: false,
-    channels: [],
-    options: {},
-  },
-  obsDim: OBS,
-  dim: DIM,
-  threads: 1,
-  seed: 0,
-  train: {
-    steps: 0,
-    batch: BATCH,
-    lr: 1e-3,
-    discount: 0.9,
-    critic: 'distance',
-    loss: 'symmetric',
-    regulariser: 'penalty',
-    weight: 1,
-    scale: 1,
-    clip: 1,
-    logEvery: 100,
-    engine: 'auto',
-  },
-};
+const options: EngineOptions = referenceOptions(referenceTrain('auto', 100));
 
 /** Floating-point operations of one step (2 per multiply–add; products only). */
 function stepFlops(): number {

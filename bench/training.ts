@@ -28,12 +28,9 @@ import {
 import { loadEngines } from '../runner/training/engines.ts';
 import { PairSampler } from '../runner/training/pair-sampler.ts';
 import { runTrainingLoop } from '../runner/training/train-loop.ts';
+import { BATCH, DIM, OBS, WIDTHS, referenceOptions, referenceTrain } from './reference-step.ts';
 
 const ROUNDS = Number(process.env.ROUNDS ?? 3);
-const BATCH = 256;
-const WIDTHS = [256, 256];
-const OBS = 64;
-const DIM = 16;
 
 /** Multiply–adds of one step: two encoder passes forward, twice that backward (dX and dW). */
 function stepFlops(): number {
@@ -45,41 +42,15 @@ function stepFlops(): number {
   return 2 * 3 * (encoderForward + critic); // forward + two backward products, 2 flops per MAC
 }
 
-const train: TrainConfig = {
-  steps: 0,
-  batch: BATCH,
-  lr: 1e-3,
-  discount: 0.9,
-  critic: 'distance',
-  loss: 'symmetric',
-  regulariser: 'penalty',
-  weight: 1,
-  scale: 1,
-  clip: 1,
-  logEvery: 1_000_000,
-  engine: 'tfjs',
-};
+const train: TrainConfig = referenceTrain('tfjs');
 
 async function measureLoop(
   engineName: EngineName,
   samplers: { train: PairSampler; val: PairSampler },
   steps: number,
 ): Promise<number> {
-  const options: EngineOptions = {
-    encoder: {
-      kind: 'mlp',
-      widths: WIDTHS,
-      activation: 'relu',
-      layerNorm: false,
-      channels: [],
-      options: {},
-    },
-    obsDim: OBS,
-    dim: DIM,
-    train,
-    threads: 1,
-    seed: 0,
-  };
+  const options: EngineOptions = referenceOptions(train);
+
   const engine = await createEngine(engineName, options);
   engine.init(initDenseParams(options.encoder, OBS, DIM, 'distance', createRng(0).fork('init')));
   const hooks = { log: () => undefined, signal: new AbortController().signal };
