@@ -7,25 +7,11 @@ import type {
 } from '../../runner/config/types.ts';
 import type { TrainJobSpec } from '../../runner/plan/job-spec.ts';
 import type { FitHooks } from '../../runner/training/method.ts';
+import { makeDataConfig } from '../data/make-data-config.ts';
 
 /** A small linear-Gaussian data config (the greenhouse sensor array). */
 export function smallData(overrides: Partial<DataConfig> = {}): DataConfig {
-  return {
-    source: 'linear-gaussian',
-    seed: 1,
-    episodes: 40,
-    steps: 48,
-    obsDim: 12,
-    noise: 0.05,
-    stateDim: 4,
-    map: 'linear',
-    layout: 'open-hall',
-    image: 16,
-    dt: 0,
-    split: { train: 0.7, val: 0.1, test: 0.2 },
-    standardise: true,
-    ...overrides,
-  };
+  return makeDataConfig({ seed: 1, episodes: 40, steps: 48, obsDim: 12, ...overrides });
 }
 
 /** Encoder config defaults as the schema resolves them, with overrides. */

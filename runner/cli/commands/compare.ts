@@ -8,7 +8,7 @@ import {
   formatComparison,
   parseTolerance,
 } from '../../report/compare/index.ts';
-import { describeFailure } from '../../report/report-error.ts';
+import { withReportErrors } from '../with-report-errors.ts';
 
 const usage = [
   'Usage: midpath compare BASE_DIR CANDIDATE_DIR [--json] [--tolerance X]',
@@ -40,7 +40,7 @@ async function runCompare(args: string[], io: CliIo): Promise<number> {
     );
     return EXIT.badInput;
   }
-  try {
+  return withReportErrors(io, async () => {
     const tolerance =
       parsed.values.tolerance === undefined
         ? DEFAULT_COMPARE.tolerance
@@ -59,12 +59,7 @@ async function runCompare(args: string[], io: CliIo): Promise<number> {
           ),
     );
     return comparison.counts.regressed > 0 ? EXIT.findings : EXIT.ok;
-  } catch (error) {
-    const text = describeFailure(error);
-    if (text === null) throw error;
-    io.err(text);
-    return EXIT.badInput;
-  }
+  });
 }
 
 export const compareCommand: CliCommand = {

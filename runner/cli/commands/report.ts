@@ -3,7 +3,7 @@ import { parseArgs } from 'node:util';
 import { resolve } from 'node:path';
 import { EXIT, type CliCommand, type CliIo } from '../command.ts';
 import { writeReport } from '../../report/index.ts';
-import { describeFailure } from '../../report/report-error.ts';
+import { withReportErrors } from '../with-report-errors.ts';
 
 const usage = [
   'Usage: midpath report DIR [--html FILE]',
@@ -29,7 +29,7 @@ async function runReport(args: string[], io: CliIo): Promise<number> {
     );
     return EXIT.badInput;
   }
-  try {
+  return withReportErrors(io, async () => {
     const html = parsed.values.html;
     const path = await writeReport(
       resolve(io.cwd, dir),
@@ -37,12 +37,7 @@ async function runReport(args: string[], io: CliIo): Promise<number> {
     );
     io.out(path);
     return EXIT.ok;
-  } catch (error) {
-    const text = describeFailure(error);
-    if (text === null) throw error;
-    io.err(text);
-    return EXIT.badInput;
-  }
+  });
 }
 
 export const reportCommand: CliCommand = {

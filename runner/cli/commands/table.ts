@@ -3,7 +3,7 @@ import { parseArgs } from 'node:util';
 import { resolve } from 'node:path';
 import { EXIT, type CliCommand, type CliIo } from '../command.ts';
 import { renderTable } from '../../report/write-table.ts';
-import { describeFailure } from '../../report/report-error.ts';
+import { withReportErrors } from '../with-report-errors.ts';
 
 const usage = [
   'Usage: midpath table DIR --format csv|markdown|latex|json [--metric NAME]...',
@@ -34,20 +34,16 @@ async function runTable(args: string[], io: CliIo): Promise<number> {
     );
     return EXIT.badInput;
   }
-  try {
+  const format = parsed.values.format;
+  return withReportErrors(io, async () => {
     io.out(
       await renderTable(resolve(io.cwd, dir), {
-        format: parsed.values.format,
+        format,
         metrics: parsed.values.metric ?? [],
       }),
     );
     return EXIT.ok;
-  } catch (error) {
-    const text = describeFailure(error);
-    if (text === null) throw error;
-    io.err(text);
-    return EXIT.badInput;
-  }
+  });
 }
 
 export const tableCommand: CliCommand = {
