@@ -58,5 +58,11 @@ export async function main(argv: string[], io: CliIo = processIo()): Promise<num
     );
     return EXIT.badInput;
   }
+  // `midpath run --help` means `midpath help run`, wherever the flag stands before a `--`.
+  const options = rest.includes('--') ? rest.slice(0, rest.indexOf('--')) : rest;
+  if (options.includes('--help') || options.includes('-h')) {
+    io.out(command.usage);
+    return EXIT.ok;
+  }
   return command.run(rest, io);
 }

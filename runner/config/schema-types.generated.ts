@@ -357,6 +357,10 @@ export interface ExperimentFile {
      */
     retries?: number;
     /**
+     * Jobs one worker process runs, one after another, before it is replaced (a job that crashes, times out or throws always retires its process). 1 starts a fresh process for every job.
+     */
+    jobsPerWorker?: number;
+    /**
      * Time limits per job kind.
      */
     timeout?: {
@@ -718,6 +722,10 @@ export interface ResolvedExperiment {
      * Retries of a crashed job (divergence is never retried).
      */
     retries: number;
+    /**
+     * Jobs one worker process runs, one after another, before it is replaced (a job that crashes, times out or throws always retires its process). 1 starts a fresh process for every job.
+     */
+    jobsPerWorker: number;
     /**
      * Time limits per job kind.
      */

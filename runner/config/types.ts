@@ -170,6 +170,8 @@ export interface RunConfig {
   maxJobs: number;
   /** Retries of a crashed job (divergence is never retried). (default 1) */
   retries: number;
+  /** Jobs one worker process runs before it is replaced; 1: a fresh process per job. (default 20) */
+  jobsPerWorker: number;
   /** Time limits in minutes per job kind. (default train 60, evaluate 30) */
   timeout: { train: number; evaluate: number };
 }

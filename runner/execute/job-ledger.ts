@@ -21,6 +21,11 @@ export interface JobProvenance {
   wallSeconds: number;
   peakRssBytes: number;
   hostname: string;
+  /**
+   * The worker process that ran the job, and the job's place among the jobs that process
+   * ran (1: a fresh process). Absent for jobs that never ran in a worker.
+   */
+  worker?: { pid: number; job: number };
 }
 
 /** A job the runner has finished with: what the store turns into result.json. */

@@ -1,5 +1,5 @@
 /**
- * Runs one job to a kept result: attempts in fresh workers, retries of crashes (never of a
+ * Runs one job to a kept result: attempts in pooled workers (worker-pool.ts), retries of crashes (never of a
  * divergence, a time-out or running out of memory, which would only repeat), and the
  * result record with its provenance.
  */
@@ -7,14 +7,14 @@ import type { JobSpec } from '../plan/job-spec.ts';
 import type { BuildFacts } from './build-facts.ts';
 import type { JobOutcome } from './job-handler.ts';
 import type { FinishedJob, FinishedStatus, JobLedger } from './job-ledger.ts';
-import type { AttemptResult, CrashCause } from './run-in-worker.ts';
-import { startWorker } from './run-in-worker.ts';
+import type { AttemptResult, CrashCause, WorkerPool } from './worker-pool.ts';
 import type { SweepControl } from './sweep-control.ts';
 import type { SweepEvent } from './sweep-events.ts';
 
 /** Settings shared by every job of a sweep. */
 export interface JobRunSettings {
   ledger: JobLedger;
+  pool: WorkerPool;
   control: SweepControl;
   facts: BuildFacts;
   threads: number;
@@ -37,6 +37,7 @@ function provenanceOf(
   wallSeconds: number,
   peak: number,
   backend: string,
+  worker?: { pid: number; job: number },
 ): FinishedJob['provenance'] {
   const { facts } = settings;
   return {
@@ -49,6 +50,7 @@ function provenanceOf(
     wallSeconds,
     peakRssBytes: peak,
     hostname: facts.hostname,
+    ...(worker === undefined ? {} : { worker }),
   };
 }
 
@@ -86,7 +88,7 @@ async function attemptOnce(
       ? { [spec.trainId]: settings.ledger.artifactsDirOf(spec.trainId) }
       : {};
   settings.emit({ type: 'started', spec, attempt });
-  const handle = startWorker({
+  const handle = settings.pool.start({
     request: { spec, artifactsDir: paths.artifactsDir, dependencies, threads: settings.threads },
     logPath: paths.logPath,
     timeLimitMs: settings.timeLimitMs(spec.kind),
@@ -125,6 +127,7 @@ export async function runJob(
           result.wallSeconds,
           result.peakRssBytes,
           backendOf(outcome, settings.threads),
+          { pid: result.workerPid, job: result.jobsBefore + 1 },
         );
         const base = { spec, metrics: outcome.metrics, info: outcome.info, provenance };
         if (outcome.status === 'done') return keep(settings, { ...base, status: 'done' });

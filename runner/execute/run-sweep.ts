@@ -12,6 +12,7 @@ import type { FinishedStatus, JobLedger, StoredMark } from './job-ledger.ts';
 import type { JobRunSettings } from './run-job.ts';
 import { recordBlocked, runJob } from './run-job.ts';
 import { SweepControl } from './sweep-control.ts';
+import { WorkerPool } from './worker-pool.ts';
 import type { SweepEvent, SweepSummary } from './sweep-events.ts';
 
 export interface SweepOptions {
@@ -26,6 +27,8 @@ export interface SweepOptions {
   retries: number;
   /** Time limit per job kind, in milliseconds. */
   timeLimitMs: (kind: JobSpec['kind']) => number;
+  /** Jobs one worker process runs before it is replaced; 1: a fresh process per attempt. (default 20) */
+  jobsPerWorker?: number;
   /** Heap limit per worker. (default: 70% of memory shared among workers, at least 256 MB) */
   heapLimitMb?: number;
   /** Between asking a timed-out worker to stop and killing it. (default 5000) */
@@ -70,8 +73,10 @@ export async function runSweep(jobs: JobSpec[], options: SweepOptions): Promise<
   const control = options.control ?? new SweepControl();
   const emit = options.onEvent ?? (() => undefined);
   const { ledger, fresh } = options;
+  const pool = new WorkerPool({ jobsPerWorker: Math.max(1, options.jobsPerWorker ?? 20) });
   const settings: JobRunSettings = {
     ledger,
+    pool,
     control,
     facts: readBuildFacts(),
     threads,
@@ -164,6 +169,7 @@ export async function runSweep(jobs: JobSpec[], options: SweepOptions): Promise<
     results = await Promise.all(ordered.map((job) => settle(job)));
   } finally {
     clearInterval(heartbeat);
+    pool.close();
   }
   if (fatal !== undefined) throw fatal;
   return summarise(ordered, results, initial, kept, stored, control);

@@ -1,17 +1,23 @@
 /**
- * Entry point of a worker process (forked by run-in-worker.ts through tsx). It waits for one
- * RunRequest, runs the job's handler and reports the outcome over IPC, then exits. Anything
- * the handler prints goes to the runner through the piped stdout/stderr and lands in the
- * job's log.
+ * Entry point of a worker process (forked by worker-pool.ts through tsx). It runs the jobs
+ * the runner sends, one at a time, and reports each outcome over IPC. After a job it prints
+ * the request's end marker on stdout and stderr, so the runner can cut the piped output
+ * into per-job logs, and waits for the next request. A job that throws ends the process:
+ * whatever state it left behind never reaches another job.
  */
+import { readFileSync, writeFileSync } from 'node:fs';
 import { resolve } from 'node:path';
 import { pathToFileURL } from 'node:url';
+import { getHeapStatistics } from 'node:v8';
 import type { JobContext, JobHandler } from './job-handler.ts';
 import type { JobKind } from '../plan/job-spec.ts';
 import type { FromWorker, RunRequest, ToWorker } from './worker-protocol.ts';
 import { HANDLERS_MODULE_ENV } from './worker-protocol.ts';
 
 type Lookup = (kind: JobKind) => JobHandler;
+
+/** A job leaving more than this share of the heap limit in use retires its worker. */
+const REUSE_HEAP_SHARE = 0.5;
 
 /** Loads the handler map: the built-in one, or the test-only replacement named in the env. */
 async function loadLookup(): Promise<Lookup> {
@@ -26,6 +32,8 @@ async function loadLookup(): Promise<Lookup> {
   return module.handlerFor;
 }
 
+let lookup: Promise<Lookup> | undefined;
+
 function send(message: FromWorker): Promise<void> {
   return new Promise((done) => {
     if (!process.send) return done();
@@ -33,12 +41,42 @@ function send(message: FromWorker): Promise<void> {
   });
 }
 
+function write(stream: NodeJS.WriteStream, text: string): Promise<void> {
+  return new Promise((done) => stream.write(text, () => done()));
+}
+
+/**
+ * Starts a fresh peak-memory window for the next job. On Linux, writing 5 to
+ * /proc/self/clear_refs resets the process's peak resident set (proc(5)), which is what
+ * getrusage(2) reports as maxrss. Elsewhere the figure stays the worker's lifetime peak,
+ * an upper bound of the job's own.
+ */
+function resetPeakRss(): void {
+  try {
+    writeFileSync('/proc/self/clear_refs', '5');
+  } catch {
+    // Not Linux, or not allowed: keep the lifetime peak.
+  }
+}
+
 function peakRssBytes(): number {
-  // resourceUsage().maxRSS is in kilobytes (getrusage(2)); this process ran only this job.
-  return process.resourceUsage().maxRSS * 1024;
+  try {
+    // VmHWM is the peak resident set since the last reset, in kB (proc(5)).
+    const match = /VmHWM:\s+(\d+)\s+kB/.exec(readFileSync('/proc/self/status', 'utf8'));
+    if (match?.[1]) return Number(match[1]) * 1024;
+  } catch {
+    // Fall through to getrusage.
+  }
+  return process.resourceUsage().maxRSS * 1024; // getrusage(2) maxrss is in kilobytes
+}
+
+function heapStaysSmall(): boolean {
+  const heap = getHeapStatistics();
+  return heap.used_heap_size < REUSE_HEAP_SHARE * heap.heap_size_limit;
 }
 
 async function runRequest(request: RunRequest, abort: AbortController): Promise<void> {
+  resetPeakRss();
   const context: JobContext = {
     artifactsDir: request.artifactsDir,
     artifactsOf: (jobId) => {
@@ -52,31 +90,41 @@ async function runRequest(request: RunRequest, abort: AbortController): Promise<
     signal: abort.signal,
   };
   try {
-    const handler = (await loadLookup())(request.spec.kind);
+    lookup ??= loadLookup();
+    const handler = (await lookup)(request.spec.kind);
     const outcome = await handler(request.spec, context);
-    await send({ type: 'outcome', outcome, peakRssBytes: peakRssBytes() });
-    process.exit(0);
+    await send({
+      type: 'outcome',
+      outcome,
+      peakRssBytes: peakRssBytes(),
+      reusable: heapStaysSmall(),
+    });
   } catch (error) {
     const message = error instanceof Error ? error.message : String(error);
     const stack = error instanceof Error ? (error.stack ?? message) : message;
     await send({ type: 'threw', message, stack, peakRssBytes: peakRssBytes() });
     process.exit(1);
   }
+  await Promise.all([
+    write(process.stdout, request.endMarker),
+    write(process.stderr, request.endMarker),
+  ]);
 }
 
-const abort = new AbortController();
+let current: AbortController | undefined;
 process.on('message', (message: ToWorker) => {
   switch (message.type) {
     case 'run':
-      void runRequest(message, abort);
+      current = new AbortController();
+      void runRequest(message, current);
       break;
     case 'abort':
-      abort.abort(new Error(message.reason));
+      current?.abort(new Error(message.reason));
       break;
   }
 });
 // Ctrl-C reaches the whole terminal process group; the runner decides what stops (first
 // Ctrl-C lets running jobs finish), so workers ignore it. SIGKILL still ends them.
 process.on('SIGINT', () => undefined);
-// The runner is gone (kill -9, crash): stop at once so no orphan keeps computing.
+// The runner is gone (kill -9, crash) or retired this worker: stop at once.
 process.on('disconnect', () => process.exit(1));

@@ -1,7 +1,9 @@
 /**
- * Messages between the runner and a worker process (Node IPC, structured-clone JSON).
- * One worker process runs exactly one job attempt, so a crash, a leak or a heap blow-up
- * takes down that attempt only, and its peak memory is its own.
+ * Messages between the runner and a worker process (Node IPC, JSON serialisation).
+ * A worker runs one job attempt at a time. It may run several attempts one after another
+ * (run.jobsPerWorker), but any attempt that does not end cleanly retires its process, so a
+ * crash, a hang or a heap blow-up takes down that attempt only; the peak memory reported
+ * for an attempt is measured from its own start (see worker-main.ts).
  */
 import type { JobOutcome } from './job-handler.ts';
 import type { JobSpec } from '../plan/job-spec.ts';
@@ -14,6 +16,11 @@ export interface RunRequest {
   /** Artifact directories of the jobs this one depends on, by id. */
   dependencies: Record<string, string>;
   threads: number;
+  /**
+   * Printed by the worker on stdout and on stderr once the job's outcome is sent: the
+   * runner's cut between this job's log and whatever the process prints afterwards.
+   */
+  endMarker: string;
 }
 
 /** Runner → worker: stop now (time limit or second Ctrl-C); the handler's signal aborts. */
@@ -27,7 +34,13 @@ export type ToWorker = RunRequest | AbortRequest;
 /** Worker → runner. */
 export type FromWorker =
   | { type: 'log'; line: string }
-  | { type: 'outcome'; outcome: JobOutcome; peakRssBytes: number }
+  | {
+      type: 'outcome';
+      outcome: JobOutcome;
+      peakRssBytes: number;
+      /** False when the process should not run another job (its heap stayed large). */
+      reusable: boolean;
+    }
   | { type: 'threw'; message: string; stack: string; peakRssBytes: number };
 
 /**

@@ -9,6 +9,15 @@ describe('midpath CLI dispatch', () => {
     expect(io.stdout.join('')).toContain('Usage: midpath <command>');
   });
 
+  it("prints one command's usage for `<command> --help` and exits 0, writing nothing", async () => {
+    for (const name of ['run', 'check', 'table']) {
+      const io = bufferIo();
+      expect(await main([name, 'configs/demo.yaml', '--help'], io)).toBe(0);
+      expect(io.stdout.join('')).toContain(`Usage: midpath ${name}`);
+      expect(io.stderr.join('')).toBe('');
+    }
+  });
+
   it('rejects an unknown command with exit 2 and names it', async () => {
     const io = bufferIo();
     expect(await main(['frobnicate'], io)).toBe(2);

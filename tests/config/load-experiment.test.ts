@@ -17,6 +17,7 @@ describe('loadExperiment', () => {
     expect(config.run).toEqual({
       maxJobs: 100000,
       retries: 1,
+      jobsPerWorker: 20,
       timeout: { train: 60, evaluate: 30 },
     });
     expect(config.methods).toEqual([

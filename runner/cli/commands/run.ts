@@ -226,6 +226,7 @@ async function sweep(
       ...(args.cores === undefined ? {} : { cores: args.cores }),
       fresh: args.fresh,
       retries: config.run.retries,
+      jobsPerWorker: config.run.jobsPerWorker,
       timeLimitMs: (kind) => config.run.timeout[kind] * 60_000,
       control,
       onEvent: (event) => printer.onEvent(event),
