@@ -3,6 +3,8 @@ import { writeAtPath } from '../config/config-paths.ts';
 import { isEvalInput, isTrainInput, METHOD_INPUTS } from '../config/method-inputs.ts';
 import type { ExperimentConfig, MethodConfig } from '../config/types.ts';
 import { hashJob } from './hash-job.ts';
+import type { DigestOf } from './input-files.ts';
+import { fileDigester, filesReadBy } from './input-files.ts';
 import type { EvalJobSpec, JobSpec, Setting, TrainJobSpec } from './job-spec.ts';
 import { labelAxisValues } from './label-axis-values.ts';
 import { assertPlanSize } from './plan-size.ts';
@@ -73,10 +75,12 @@ function trainInputs(
   method: MethodConfig,
   seed: number,
   cfg: ExperimentConfig,
+  files: Record<string, string> | undefined,
 ): Record<string, unknown> {
   const uses = METHOD_INPUTS[method.name];
   const inputs: Record<string, unknown> = { kind: 'train', method: method.name, data: cfg.data };
   if (uses.path) inputs.path = method.path;
+  if (files !== undefined) inputs.files = files;
   if (uses.seed) inputs.seed = seed;
   if (uses.dim) inputs.dim = cfg.dim;
   if (uses.trains) Object.assign(inputs, { encoder: cfg.encoder, train: cfg.train });
@@ -88,10 +92,15 @@ function trainInputs(
  * its train job. Combinations run over the product of the axes (a `together` group is one
  * axis), then methods, then seeds. Jobs with equal ids are built once, so a baseline whose
  * output ignores an axis (pca and `train.discount`) or the seed gets one job, and an axis
- * over `eval.*` multiplies evaluate jobs only, reusing the trained encoders.
+ * over `eval.*` multiplies evaluate jobs only, reusing the trained encoders. A file a train
+ * job reads enters its id by content (`digestOf`, SHA-256 from disk by default; input-files.ts).
  * Throws PlanTooLargeError above `run.maxJobs` (loadExperiment reports that first).
  */
-export function expandPlan(config: ExperimentConfig, baseDir: string): JobSpec[] {
+export function expandPlan(
+  config: ExperimentConfig,
+  baseDir: string,
+  digestOf: DigestOf = fileDigester(baseDir),
+): JobSpec[] {
   assertPlanSize(config);
   const axes = listPlanAxes(config);
   const seeds = listSeeds(config.sweep.seeds);
@@ -102,7 +111,10 @@ export function expandPlan(config: ExperimentConfig, baseDir: string): JobSpec[]
     for (const method of config.methods) {
       const runSeeds = METHOD_INPUTS[method.name].seed ? seeds : seeds.slice(0, 1);
       for (const seed of runSeeds) {
-        const trainId = hashJob(trainInputs(method, seed, cfg));
+        const paths = filesReadBy(method, cfg);
+        const files =
+          paths.length === 0 ? undefined : Object.fromEntries(paths.map((p) => [p, digestOf(p)]));
+        const trainId = hashJob(trainInputs(method, seed, cfg, files));
         const trainSetting = describeSetting(axes, combo, (p) => isTrainInput(method.name, p));
         let train = trainJobs.get(trainId);
         if (!train) {
@@ -118,6 +130,7 @@ export function expandPlan(config: ExperimentConfig, baseDir: string): JobSpec[]
             dim: cfg.dim,
             train: cfg.train,
             baseDir,
+            ...(files === undefined ? {} : { inputFiles: files }),
           };
           trainJobs.set(trainId, train);
         }

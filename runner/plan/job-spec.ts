@@ -28,6 +28,12 @@ export interface TrainJobSpec {
   train: TrainConfig;
   /** Directory of the experiment file: relative paths (data files, plugins) resolve from here. */
   baseDir: string;
+  /**
+   * SHA-256 of each file the job reads (data file, plugin module, precomputed embeddings),
+   * by path as written; part of the id, so editing a file reruns its jobs. Absent when the
+   * job reads no file. 'unreadable' when the file could not be read at planning time.
+   */
+  inputFiles?: Record<string, string>;
 }
 
 /** Evaluates one trained representation; depends on its train job (reused by id). */

@@ -8,6 +8,7 @@ import { writeFile } from 'node:fs/promises';
 import { join } from 'node:path';
 import { loadDataset } from '../../data/load-dataset.ts';
 import type { EvalConfig } from '../../config/types.ts';
+import { assertInputFilesUnchanged } from '../../plan/input-files.ts';
 import type { EvalJobSpec } from '../../plan/job-spec.ts';
 import type { JobHandler } from '../job-handler.ts';
 import { loadRepresentation } from './representation-files.ts';
@@ -28,6 +29,7 @@ export function requiredSteps(config: EvalConfig): number {
 /** Runs one evaluation; artifacts land in `<suite>.json` files under ctx.artifactsDir. */
 export const evaluateJob: JobHandler<EvalJobSpec> = async (spec, ctx) => {
   const started = Date.now();
+  assertInputFilesUnchanged(spec.train.inputFiles, spec.train.baseDir);
   const dataset = await loadDataset(spec.train.data, spec.train.baseDir, {
     minSteps: requiredSteps(spec.eval),
   });

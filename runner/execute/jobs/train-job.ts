@@ -9,6 +9,7 @@ import { readFile, writeFile } from 'node:fs/promises';
 import { join } from 'node:path';
 import { loadDataset } from '../../data/load-dataset.ts';
 import type { MetricRow } from '../../evaluation/metric.ts';
+import { assertInputFilesUnchanged } from '../../plan/input-files.ts';
 import type { TrainJobSpec } from '../../plan/job-spec.ts';
 import type { FitResult } from '../../training/fit-method.ts';
 import type { JobHandler } from '../job-handler.ts';
@@ -43,6 +44,7 @@ function backendLabel(info: Record<string, unknown>): string {
 
 /** The handler of 'train' jobs. */
 export const trainJob: JobHandler<TrainJobSpec> = async (spec, ctx) => {
+  assertInputFilesUnchanged(spec.inputFiles, spec.baseDir);
   const dataset = await loadDataset(spec.data, spec.baseDir);
   ctx.log(
     `${spec.method.label}: ${dataset.name}, ${dataset.train.length} training episodes, obsDim ${dataset.obsDim}, d ${spec.dim}`,
