@@ -1,32 +1,19 @@
-// `midpath run`: the CLI wiring of both engines (local sweep, SLURM submission, and the
-// SLURM array task mode). Longer than the usual 300 lines because one command file holds
-// all three; the engines themselves live in runner/execute/.
-import { randomBytes } from 'node:crypto';
-import { availableParallelism, hostname } from 'node:os';
+// `midpath run`: parses the options, loads and plans the experiment, writes plan.json and
+// hands the jobs to the execution engine `--engine` names (run-local.ts, run-slurm.ts).
 import { join, relative, resolve } from 'node:path';
 import { parseArgs } from 'node:util';
 import { formatConfigErrors } from '../../config/config-error.ts';
 import type { ExperimentConfig } from '../../config/types.ts';
 import { loadExperiment } from '../../config/load-experiment.ts';
-import { createProgressPrinter, describeSummary } from '../../execute/progress-printer.ts';
-import type { ProgressPrinter } from '../../execute/progress-printer.ts';
-import { runSweep } from '../../execute/run-sweep.ts';
-import { SweepControl } from '../../execute/sweep-control.ts';
-import type { SweepSummary } from '../../execute/sweep-events.ts';
-import { HANDLERS_MODULE_ENV } from '../../execute/worker-protocol.ts';
+import { describeSummary } from '../../execute/progress-printer.ts';
 import { expandPlan } from '../../plan/expand-plan.ts';
 import type { JobSpec } from '../../plan/job-spec.ts';
-import { writeReport } from '../../report/index.ts';
-import { indexRunEnd, indexRunStart } from '../../store/run-index.ts';
-import { RunLedger } from '../../store/run-ledger.ts';
 import { StoreError } from '../../store/store-error.ts';
 import { writePlanFile } from '../../store/write-result.ts';
-import { readRun } from '../../store/read-run.ts';
-import { quoteShell } from '../../execute/slurm/batch-script.ts';
-import { readTaskJobs } from '../../execute/slurm/scheduler-view.ts';
-import { submitSweep } from '../../execute/slurm/submit-sweep.ts';
-import { fileURLToPath } from 'node:url';
 import { EXIT, type CliCommand, type CliIo } from '../command.ts';
+import { exitStatusOf, report, sweep } from '../run-local.ts';
+import type { SlurmArgs } from '../run-slurm.ts';
+import { parseSlurmArgs, runSlurmTask, submitToSlurm } from '../run-slurm.ts';
 import { readSourceIn } from './check.ts';
 
 interface RunArgs {
@@ -35,23 +22,8 @@ interface RunArgs {
   workers: number | undefined;
   overrides: string[];
   fresh: boolean;
+  /** The engine's own options (SLURM's), undefined for the local engine. */
   slurm: SlurmArgs | undefined;
-}
-
-interface SlurmArgs {
-  partition: string | undefined;
-  time: string | undefined;
-  cpusPerTask: number;
-  maxParallel: number;
-  sbatchArgs: string[];
-  dryRun: boolean;
-}
-
-/** How many jobs at once, and on how many cores (a SLURM task: the cores it was given). */
-interface SweepChoice {
-  workers: number | undefined;
-  cores?: number;
-  fresh: boolean;
 }
 
 const USAGE = [
@@ -62,7 +34,7 @@ const USAGE = [
   'Runs every job of the experiment in worker processes and writes the results directory,',
   'then the report. Jobs with a kept result are skipped, so running again resumes.',
   '  --out DIR           results directory (default results/<name>/ under the working directory)',
-  '  --workers N         jobs at once, each in its own process (default: the number of cores)',
+  '  --workers N         worker processes, one job each at a time (default: the number of cores)',
   '  --set path=value    override a config value (YAML value, typed by the schema); repeatable',
   '  --fresh             rerun every job, ignoring kept results',
   '  --engine slurm      submit SLURM job arrays instead of running here (see docs/runner.md)',
@@ -73,46 +45,6 @@ const USAGE = [
   'Exit status: 0 all done, 1 some jobs failed or diverged, 2 bad input or unwritable output,',
   '130 interrupted.',
 ].join('\n');
-
-function wholeNumber(text: string, name: string, min: number, io: CliIo): number | null {
-  const value = Number(text);
-  if (Number.isInteger(value) && value >= min) return value;
-  io.err(
-    `midpath run: bad-option: --${name} expects a whole number of at least ${min}, got '${text}'`,
-  );
-  return null;
-}
-
-/** The SLURM options; undefined for the local engine, null after a reported error. */
-function parseSlurmArgs(
-  values: Record<string, string | boolean | string[] | undefined>,
-  io: CliIo,
-): SlurmArgs | undefined | null {
-  const engine = values.engine as string;
-  if (engine === 'local') return undefined;
-  if (engine !== 'slurm') {
-    io.err(`midpath run: bad-option: --engine expects local or slurm, got '${engine}'`);
-    return null;
-  }
-  const time = values.time as string | undefined;
-  if (time !== undefined && !/^(\d+-)?\d{1,3}:\d{2}:\d{2}$/.test(time)) {
-    io.err(`midpath run: bad-option: --time expects HH:MM:SS (or D-HH:MM:SS), got '${time}'`);
-    return null;
-  }
-  const cpusPerTask = wholeNumber(values['cpus-per-task'] as string, 'cpus-per-task', 1, io);
-  const maxParallel = wholeNumber(values['max-parallel'] as string, 'max-parallel', 0, io);
-  if (cpusPerTask === null || maxParallel === null) return null;
-  const partition = values.partition as string | undefined;
-  const sbatchArgs = values['sbatch-arg'] as string[];
-  return {
-    partition,
-    time,
-    cpusPerTask,
-    maxParallel,
-    sbatchArgs,
-    dryRun: values['dry-run'] === true,
-  };
-}
 
 function parseRunArgs(args: string[], io: CliIo): RunArgs | { task: string } | undefined {
   try {
@@ -163,99 +95,29 @@ function parseRunArgs(args: string[], io: CliIo): RunArgs | { task: string } | u
   return undefined;
 }
 
-/** Ctrl-C (and SIGTERM, as a cluster sends on cancel): drain first, kill on the second. */
-function trapSignals(control: SweepControl, printer: ProgressPrinter): () => void {
-  const onSignal = (): void => {
-    if (!control.draining) {
-      printer.onEvent({ type: 'draining', running: control.running });
-      control.drain();
-    } else if (!control.killed) {
-      printer.onEvent({ type: 'killing', running: control.running });
-      control.kill();
-    }
-  };
-  process.on('SIGINT', onSignal);
-  process.on('SIGTERM', onSignal);
-  return () => {
-    process.off('SIGINT', onSignal);
-    process.off('SIGTERM', onSignal);
-  };
+/** A planned run, as every execution engine receives it (plan.json already written). */
+interface PlannedRun {
+  config: ExperimentConfig;
+  jobs: JobSpec[];
+  out: string;
+  args: RunArgs;
 }
 
-function exitStatusOf(summary: SweepSummary): number {
-  if (summary.interrupted) return EXIT.interrupted;
-  return summary.failed + summary.diverged > 0 ? EXIT.findings : EXIT.ok;
+/** The local engine: runs the sweep here, then prints the summary and writes the report. */
+async function runHere(run: PlannedRun, io: CliIo): Promise<number> {
+  const summary = await sweep(run.config, run.jobs, run.out, run.args, io);
+  io.out(describeSummary(summary));
+  io.out(`Results: ${relative(io.cwd, run.out) || '.'}`);
+  if (!summary.interrupted) await report(run.out, io);
+  return exitStatusOf(summary);
 }
 
-async function sweep(
-  config: ExperimentConfig,
-  jobs: JobSpec[],
-  out: string,
-  args: SweepChoice,
-  io: CliIo,
-): Promise<SweepSummary> {
-  const runId = `${new Date().toISOString().replace(/[:.]/g, '-')}-${randomBytes(3).toString('hex')}`;
-  const ledger = new RunLedger(out, {
-    runId,
-    onWarning: (m) => io.err(`midpath run: warning: ${m}`),
-  });
-  const db = ledger.database();
-  const printer = createProgressPrinter({
-    // The bar redraws in place, so on a terminal text goes out without an added newline.
-    write: io.isTty ? (t) => void process.stdout.write(t) : (t) => io.out(t.replace(/\n$/, '')),
-    isTty: io.isTty,
-    color: io.isTty && !io.env.NO_COLOR,
-  });
-  const control = new SweepControl();
-  const untrap = trapSignals(control, printer);
-  const handlers = io.env[HANDLERS_MODULE_ENV];
-  let outcome = 'error';
-  try {
-    if (db)
-      indexRunStart(db, {
-        runId,
-        experiment: config.name,
-        startedAt: new Date().toISOString(),
-        hostname: hostname(),
-        pid: process.pid,
-        workers: args.workers ?? availableParallelism(),
-      });
-    const summary = await runSweep(jobs, {
-      ledger,
-      ...(args.workers === undefined ? {} : { workers: args.workers }),
-      ...(args.cores === undefined ? {} : { cores: args.cores }),
-      fresh: args.fresh,
-      retries: config.run.retries,
-      jobsPerWorker: config.run.jobsPerWorker,
-      timeLimitMs: (kind) => config.run.timeout[kind] * 60_000,
-      control,
-      onEvent: (event) => printer.onEvent(event),
-      env: handlers === undefined ? {} : { [HANDLERS_MODULE_ENV]: handlers },
-    });
-    outcome = summary.interrupted
-      ? 'interrupted'
-      : summary.failed + summary.diverged > 0
-        ? 'failures'
-        : 'complete';
-    return summary;
-  } finally {
-    untrap();
-    printer.stop();
-    if (db) indexRunEnd(db, runId, outcome);
-    ledger.close();
-  }
-}
-
-async function report(out: string, io: CliIo): Promise<void> {
-  try {
-    const path = await writeReport(out);
-    io.out(`Report: ${relative(io.cwd, path) || path}`);
-  } catch (error) {
-    io.err(
-      `midpath run: the results are kept, but the report could not be written: ${(error as Error).message}`,
-    );
-  }
-}
+/** Execution engines by the name `--engine` takes. */
+const ENGINES: Record<'local' | 'slurm', (run: PlannedRun, io: CliIo) => Promise<number>> = {
+  local: runHere,
+  slurm: (run, io) =>
+    Promise.resolve(submitToSlurm(run.config, run.jobs, run.out, run.args.slurm!, io)),
+};
 
 /** `midpath run FILE`: runs an experiment's jobs into a results directory, resumably. */
 export const runCommand: CliCommand = {
@@ -273,7 +135,7 @@ export const runCommand: CliCommand = {
     }
     const jobs = expandPlan(loaded.config, loaded.baseDir);
     const out = resolve(io.cwd, parsed.out ?? join('results', loaded.config.name));
-    let summary: SweepSummary;
+    const engine = ENGINES[parsed.slurm ? 'slurm' : 'local'];
     try {
       writePlanFile(out, {
         experiment: loaded.config.name,
@@ -281,102 +143,11 @@ export const runCommand: CliCommand = {
         config: loaded.config,
         jobs,
       });
-      if (parsed.slurm) return submitToSlurm(loaded.config, jobs, out, parsed.slurm, io);
-      summary = await sweep(loaded.config, jobs, out, parsed, io);
+      return await engine({ config: loaded.config, jobs, out, args: parsed }, io);
     } catch (error) {
       if (!(error instanceof StoreError)) throw error;
       io.err(`midpath run: ${error.code}: ${error.message}`);
       return EXIT.badInput;
     }
-    io.out(describeSummary(summary));
-    io.out(`Results: ${relative(io.cwd, out) || '.'}`);
-    if (!summary.interrupted) await report(out, io);
-    return exitStatusOf(summary);
   },
 };
-
-/** How array tasks start this Midpath: the same Node and the same checkout, absolute paths. */
-function midpathCommand(): string {
-  const bin = fileURLToPath(new URL('../../../bin/midpath.mjs', import.meta.url));
-  return `${quoteShell(process.execPath)} ${quoteShell(bin)}`;
-}
-
-/** `--engine slurm`: submits the jobs without a kept result as SLURM arrays and returns. */
-function submitToSlurm(
-  config: ExperimentConfig,
-  jobs: JobSpec[],
-  out: string,
-  o: SlurmArgs,
-  io: CliIo,
-): number {
-  const ledger = new RunLedger(out, { runId: 'slurm-submit' });
-  const isKept = (id: string): boolean => {
-    const mark = ledger.stored(id);
-    return mark !== null && mark.status !== 'failed';
-  };
-  const handlers = io.env[HANDLERS_MODULE_ENV];
-  let outcome;
-  try {
-    outcome = submitSweep(
-      out,
-      config.name,
-      jobs,
-      isKept,
-      { timeoutMinutes: config.run.timeout, retries: config.run.retries },
-      {
-        ...o,
-        arrayLimit: 1000,
-        midpath: midpathCommand(),
-        env: {
-          ...process.env,
-          ...(handlers === undefined ? {} : { [HANDLERS_MODULE_ENV]: handlers }),
-        },
-      },
-    );
-  } catch (error) {
-    io.err(`midpath run: slurm-submit-failed: ${(error as Error).message}`);
-    return EXIT.badInput;
-  }
-  const where = relative(io.cwd, out) || '.';
-  io.out(
-    `${jobs.length} jobs: ${outcome.kept} kept, ${outcome.active} already queued or running in SLURM.`,
-  );
-  if (!outcome.submission) {
-    io.out(`Nothing to submit. Follow with: midpath status ${where}`);
-    return EXIT.ok;
-  }
-  for (const array of outcome.submission.arrays) {
-    const count = array.tasks.flat().length;
-    const id = array.arrayJobId === null ? 'not submitted' : `SLURM job ${array.arrayJobId}`;
-    io.out(
-      `${array.kind.padEnd(8)} ${count} jobs in ${array.tasks.length} array tasks: ${id} (${array.script})`,
-    );
-  }
-  if (o.dryRun)
-    io.out(['Dry run; submit by hand:', ...outcome.commands.map((c) => `  ${c}`)].join('\n'));
-  io.out(`Follow with: midpath status ${where}`);
-  return EXIT.ok;
-}
-
-/** `--slurm-task RECORD#ARRAY`: what each array task runs, on its share of the jobs. */
-async function runSlurmTask(argument: string, io: CliIo): Promise<number> {
-  let task;
-  try {
-    task = readTaskJobs(argument, io.env);
-  } catch (error) {
-    io.err(`midpath run: slurm-task: ${(error as Error).message}`);
-    return EXIT.badInput;
-  }
-  const { plan } = await readRun(task.dir);
-  if (!plan) {
-    io.err(`midpath run: store-missing-plan: ${task.dir}: no readable plan.json for this task`);
-    return EXIT.badInput;
-  }
-  const byId = new Map(plan.jobs.map((job) => [job.id, job]));
-  const jobs = task.ids.flatMap((id) => byId.get(id) ?? []);
-  const cores = Number(io.env.SLURM_CPUS_PER_TASK ?? 1);
-  const config = plan.config as ExperimentConfig; // written by `run` from the resolved config
-  const summary = await sweep(config, jobs, task.dir, { workers: 1, cores, fresh: false }, io);
-  io.out(describeSummary(summary));
-  return exitStatusOf(summary);
-}
