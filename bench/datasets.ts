@@ -56,7 +56,7 @@ async function collect(): Promise<{ label: string; data: DataConfig; baseDir: st
   for (const file of files) {
     const loaded = await loadExperiment(file, { cwd: root });
     if (!loaded.ok) throw new Error(`${file} does not load: ${loaded.errors[0]?.message ?? ''}`);
-    for (const block of listDataBlocks(loaded.config)) {
+    for (const block of listDataBlocks(loaded.config, loaded.baseDir)) {
       out.push({
         label: `${file.replace(/^configs\//, '')} ${block.data.source}`,
         data: block.data,

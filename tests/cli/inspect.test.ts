@@ -76,6 +76,25 @@ describe('midpath inspect', () => {
     expect(out.datasets[0]!.summary.splits['train']!.episodes).toBe(8);
   });
 
+  it('--json follows sweep.together groups over data.* as the plan does', async () => {
+    const file = writeExperiment(
+      [
+        'data: { episodes: 10, steps: 12, obsDim: 4, stateDim: 2 }',
+        'eval: { horizons: [1], waypoints: [1] }',
+        'sweep:',
+        '  axes:',
+        '    dim: [2, 3]',
+        '  together:',
+        "    - { 'data.noise': [0.01, 0.3], 'train.discount': [0.8, 0.95] }",
+      ].join('\n'),
+    );
+    const io = bufferIo(root);
+    expect(await main(['inspect', file, '--json'], io)).toBe(0);
+    const out = JSON.parse(io.stdout.join('')) as InspectJson;
+    // Two noise levels, one dataset each; the dim axis and train.discount do not touch the data.
+    expect(out.datasets.map((d) => d.label)).toEqual(['data.noise = 0.01', 'data.noise = 0.3']);
+  });
+
   it('shows an ASCII preview for image data', async () => {
     const file = writeExperiment(
       'data: { source: swinging-lamp, image: 8, episodes: 4, steps: 12, split: { train: 0.5, val: 0.25, test: 0.25 } }\neval: { horizons: [1], waypoints: [1] }\n',

@@ -2,7 +2,8 @@ import { readFileSync } from 'node:fs';
 import { resolve } from 'node:path';
 import { parseArgs } from 'node:util';
 import { formatConfigErrors, type ReadSource } from '../../config/config-error.ts';
-import { isPlainObject, mergeDeep } from '../../config/deep-merge.ts';
+import { canonicalJson } from '../../config/canonical-json.ts';
+import { readAtPath } from '../../config/config-paths.ts';
 import { loadExperiment } from '../../config/load-experiment.ts';
 import type { DataConfig, ExperimentConfig } from '../../config/types.ts';
 import { DataError, formatDataError } from '../../data/data-error.ts';
@@ -11,6 +12,8 @@ import type { DatasetSummary } from '../../data/describe-dataset.ts';
 import type { Dataset } from '../../data/episode.ts';
 import { loadDataset } from '../../data/load-dataset.ts';
 import { requiredSteps } from '../../data/required-steps.ts';
+import { expandPlan } from '../../plan/expand-plan.ts';
+import type { Setting } from '../../plan/job-spec.ts';
 import { EXIT, type CliCommand, type CliIo } from '../command.ts';
 
 /** One dataset block a config resolves to, with the sweep values that produced it. */
@@ -19,24 +22,45 @@ interface DataBlock {
   data: DataConfig;
 }
 
-/** The config's data block, or one per combination of the sweep's `data` / `data.*` axes. */
-export function listDataBlocks(config: ExperimentConfig): DataBlock[] {
-  let blocks: DataBlock[] = [{ label: '', data: config.data }];
-  for (const [path, values] of Object.entries(config.sweep.axes)) {
-    if (path !== 'data' && !path.startsWith('data.')) continue;
-    const key = path.split('.').slice(1);
-    blocks = blocks.flatMap((b) =>
-      values.map((v) => {
-        const patch = key.reduceRight<unknown>((inner, k) => ({ [k]: inner }), v);
-        const label = `${path} = ${JSON.stringify(v)}`;
-        return {
-          label: b.label ? `${b.label}, ${label}` : label,
-          data: (isPlainObject(patch) ? mergeDeep(b.data, patch) : b.data) as DataConfig,
-        };
-      }),
-    );
+const show = (value: unknown): string =>
+  typeof value === 'string' ? value : JSON.stringify(value);
+
+/**
+ * The label of a dataset block: each swept `data.*` path with its value, and for a swept
+ * whole `data` block its label plus the keys that differ from the file's `data`.
+ */
+function labelOf(setting: Setting, data: DataConfig, base: DataConfig): string {
+  const parts: string[] = [];
+  for (const path of Object.keys(setting)) {
+    if (path === 'data') {
+      const changed = Object.entries(data)
+        .filter(([key, value]) => canonicalJson(value) !== canonicalJson(readAtPath(base, [key])))
+        .map(([key, value]) => `${key}: ${show(value)}`);
+      parts.push(
+        `data = ${show(setting[path])}${changed.length ? ` (${changed.join(', ')})` : ''}`,
+      );
+    } else if (path.startsWith('data.')) {
+      parts.push(`${path} = ${show(readAtPath(data, path.split('.').slice(1)))}`);
+    }
   }
-  return blocks;
+  return parts.join(', ');
+}
+
+/**
+ * The distinct dataset blocks of the plan's train jobs, each labelled with the sweep values
+ * that produced it. Taken from the expanded plan, so `data` axes, `data.*` axes and
+ * `sweep.together` groups resolve exactly as they do for `run`.
+ */
+export function listDataBlocks(config: ExperimentConfig, baseDir: string): DataBlock[] {
+  const blocks = new Map<string, DataBlock>();
+  for (const job of expandPlan(config, baseDir)) {
+    if (job.kind !== 'train') continue;
+    const key = canonicalJson(job.data);
+    if (blocks.has(key)) continue;
+    const label = labelOf(job.setting, job.data, config.data);
+    blocks.set(key, { label, data: job.data });
+  }
+  return [...blocks.values()];
 }
 
 const fmt = (x: number): string =>
@@ -132,7 +156,7 @@ export const inspectCommand: CliCommand = {
     }
     const minSteps = requiredSteps(loaded.config.eval);
     const reports: { label: string; summary: DatasetSummary }[] = [];
-    const blocks = listDataBlocks(loaded.config);
+    const blocks = listDataBlocks(loaded.config, loaded.baseDir);
     for (const [i, block] of blocks.entries()) {
       let ds: Dataset;
       try {
