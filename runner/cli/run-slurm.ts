@@ -10,10 +10,12 @@ import { describeSummary } from '../execute/progress-printer.ts';
 import { quoteShell } from '../execute/slurm/batch-script.ts';
 import { readTaskJobs } from '../execute/slurm/scheduler-view.ts';
 import { submitSweep } from '../execute/slurm/submit-sweep.ts';
+import { SweepStop } from '../execute/sweep-stop.ts';
 import { HANDLERS_MODULE_ENV } from '../execute/worker-protocol.ts';
 import type { JobSpec } from '../plan/job-spec.ts';
 import { readRun } from '../store/read-run.ts';
 import { RunLedger } from '../store/run-ledger.ts';
+import { StoreError } from '../store/store-error.ts';
 import { EXIT, type CliIo } from './command.ts';
 import { exitStatusOf, sweep } from './run-local.ts';
 
@@ -147,7 +149,14 @@ export async function runSlurmTask(argument: string, io: CliIo): Promise<number>
   const jobs = task.ids.flatMap((id) => byId.get(id) ?? []);
   const cores = Number(io.env.SLURM_CPUS_PER_TASK ?? 1);
   const config = plan.config as ExperimentConfig; // written by `run` from the resolved config
-  const summary = await sweep(config, jobs, task.dir, { workers: 1, cores, fresh: false }, io);
+  let summary;
+  try {
+    summary = await sweep(config, jobs, task.dir, { workers: 1, cores, fresh: false }, io);
+  } catch (error) {
+    if (!(error instanceof StoreError || error instanceof SweepStop)) throw error;
+    io.err(`midpath run: ${error.code}: ${error.message}`);
+    return EXIT.badInput;
+  }
   io.out(describeSummary(summary));
   return exitStatusOf(summary);
 }

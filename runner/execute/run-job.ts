@@ -9,6 +9,7 @@ import type { JobOutcome } from './job-handler.ts';
 import type { FinishedJob, FinishedStatus, JobLedger } from './job-ledger.ts';
 import type { AttemptResult, CrashCause, WorkerPool } from './worker-pool.ts';
 import type { SweepControl } from './sweep-control.ts';
+import { SweepStop } from './sweep-stop.ts';
 import type { SweepEvent } from './sweep-events.ts';
 
 /** Settings shared by every job of a sweep. */
@@ -135,6 +136,15 @@ export async function runJob(
         return keep(settings, { ...base, status: 'diverged', error }, error.reason);
       }
       case 'crash': {
+        if (result.cause === 'disk-full') {
+          // Every later job would fail the same way: start no other (drain now, before the
+          // queue hands this slot to the next job), record nothing, and stop the sweep.
+          settings.control.drain();
+          throw new SweepStop(
+            'disk-full',
+            `job ${spec.id} ran out of disk space writing to ${settings.ledger.artifactsDirOf(spec.id)} (${result.reason.replace(/^the job threw: /, '')}). Free space or choose another directory with --out; results already written are kept, and running again resumes`,
+          );
+        }
         // Killed while the sweep stops (a cluster's cancel signals every process): unfinished, not failed.
         if (result.cause === 'killed' && settings.control.draining) return 'interrupted';
         const retry =

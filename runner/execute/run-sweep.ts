@@ -148,7 +148,8 @@ export async function runSweep(jobs: JobSpec[], options: SweepOptions): Promise<
     if (!final) {
       if (!initial.has(spec.id)) initial.set(spec.id, ledger.stored(spec.id));
       final = settleJob(spec).catch((error: unknown) => {
-        // A store error (disk full, unwritable) stops the sweep; it is rethrown at the end.
+        // A store error (unwritable, disk full) or a SweepStop (a job found the disk full)
+        // stops the sweep; it is rethrown at the end.
         fatal ??= error instanceof Error ? error : new Error(String(error));
         control.drain();
         return 'interrupted' as const;

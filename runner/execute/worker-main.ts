@@ -102,7 +102,14 @@ async function runRequest(request: RunRequest, abort: AbortController): Promise<
   } catch (error) {
     const message = error instanceof Error ? error.message : String(error);
     const stack = error instanceof Error ? (error.stack ?? message) : message;
-    await send({ type: 'threw', message, stack, peakRssBytes: peakRssBytes() });
+    const code = (error as { code?: unknown } | null)?.code;
+    await send({
+      type: 'threw',
+      message,
+      stack,
+      peakRssBytes: peakRssBytes(),
+      ...(typeof code === 'string' ? { code } : {}),
+    });
     process.exit(1);
   }
   await Promise.all([

@@ -20,11 +20,21 @@ import { fileURLToPath, pathToFileURL } from 'node:url';
 import { EndMarkerScanner } from './end-marker.ts';
 import type { JobOutcome } from './job-handler.ts';
 import { LogTail } from './log-tail.ts';
+import { DISK_FULL_CODES } from './sweep-stop.ts';
 import type { FromWorker, RunRequest } from './worker-protocol.ts';
 import { THREADS_ENV } from './worker-protocol.ts';
 
-/** Why an attempt failed; the runner retries `threw`, `exited` and `killed` only. */
-export type CrashCause = 'threw' | 'exited' | 'killed' | 'timeout' | 'out-of-memory';
+/**
+ * Why an attempt failed; the runner retries `threw`, `exited` and `killed` only, and a
+ * `disk-full` (the job threw ENOSPC or EDQUOT) stops the sweep.
+ */
+export type CrashCause =
+  | 'threw'
+  | 'exited'
+  | 'killed'
+  | 'timeout'
+  | 'out-of-memory'
+  | 'disk-full';
 
 export type AttemptResult =
   | {
@@ -308,9 +318,10 @@ function runAttempt(
         write(`${message.stack}\n`);
         const logTail = tail.lastLines();
         closeLog();
+        const diskFull = message.code !== undefined && DISK_FULL_CODES.has(message.code);
         return settle({
           kind: 'crash',
-          cause: 'threw',
+          cause: diskFull ? 'disk-full' : 'threw',
           reason: `the job threw: ${message.message}`,
           logTail,
           wallSeconds: seconds,

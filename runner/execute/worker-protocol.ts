@@ -41,7 +41,14 @@ export type FromWorker =
       /** False when the process should not run another job (its heap stayed large). */
       reusable: boolean;
     }
-  | { type: 'threw'; message: string; stack: string; peakRssBytes: number };
+  | {
+      type: 'threw';
+      message: string;
+      stack: string;
+      peakRssBytes: number;
+      /** The error's errno name (ENOSPC, EACCES …) when it has one. */
+      code?: string;
+    };
 
 /**
  * Environment variable naming a module whose `handlerFor(kind)` replaces the built-in

@@ -69,6 +69,42 @@ describe('midpath run (end to end, fake handlers)', () => {
   });
 });
 
+describe('midpath run on a full disk', () => {
+  it('stops at the first job that finds the disk full, exits 2 naming it, and resumes after', async () => {
+    const { dir, journal } = tempRun();
+    const failFile = join(dir, '..', 'fail.txt');
+    const io = bufferIo(join(dir, '..'));
+    io.env = { MIDPATH_HANDLERS_MODULE: fakeHandlersPath };
+    process.env.MIDPATH_FAKE_JOURNAL = journal;
+    process.env.MIDPATH_FAKE_FAIL_FILE = failFile;
+    try {
+      mkdirSync(join(dir, '..'), { recursive: true });
+      const plan = ['expand', experiment, '--json'];
+      const listed = bufferIo(join(dir, '..'));
+      expect(await main(plan, listed)).toBe(0);
+      const [first] = JSON.parse(listed.stdout.join('')) as { id: string }[];
+      writeFileSync(failFile, `${first!.id} disk-full\n`);
+      expect(await main(['run', experiment, '--out', 'out', '--workers', '1'], io)).toBe(2);
+      expect(io.text()).toMatch(
+        new RegExp(
+          `midpath run: disk-full: job ${first!.id} ran out of disk space writing to .*ENOSPC`,
+        ),
+      );
+      expect((await readRun(dir)).results).toHaveLength(0);
+
+      writeFileSync(failFile, '');
+      const again = bufferIo(join(dir, '..'));
+      again.env = io.env;
+      expect(await main(['run', experiment, '--out', 'out', '--workers', '1'], again)).toBe(0);
+      expect((await readRun(dir)).results).toHaveLength(6);
+      expect(readJournal(journal).get(first!.id)).toBe(2);
+    } finally {
+      delete process.env.MIDPATH_FAKE_JOURNAL;
+      delete process.env.MIDPATH_FAKE_FAIL_FILE;
+    }
+  });
+});
+
 describe('midpath run interrupted (a real process and a real SIGINT)', () => {
   it('drains on Ctrl-C, exits 130, keeps what finished, and the next run does the rest', async () => {
     const { spawn } = await import('node:child_process');

@@ -1,4 +1,5 @@
 import { describe, expect, it } from 'vitest';
+import { SweepStop } from '../../runner/execute/sweep-stop.ts';
 import { readRun } from '../../runner/store/read-run.ts';
 import { fakeEvalSpec, fakeTrainSpec } from '../fixtures/execute/fake-plan.ts';
 import type { Behaviour } from '../fixtures/execute/fake-plan.ts';
@@ -51,6 +52,25 @@ describe('failure isolation', () => {
       `train job ${divergedTrain.id} diverged`,
     );
     expect(attempts.get(evals[2]!.id)).toBeUndefined();
+  });
+
+  it('stops the sweep when a job finds the disk full, keeping what was written and recording nothing for it', async () => {
+    const { dir, journal } = tempRun();
+    const behaviours: Behaviour[] = ['ok', 'ok', 'disk-full', 'ok', 'ok'];
+    const jobs = behaviours.map((b, i) => fakeTrainSpec(i, b));
+    const stopped = runFakeSweep(dir, journal, jobs, { workers: 1, retries: 2 });
+    await expect(stopped).rejects.toThrow(SweepStop);
+    await expect(stopped).rejects.toMatchObject({ code: 'disk-full' });
+    await expect(stopped).rejects.toThrow(
+      new RegExp(
+        `job ${jobs[2]!.id} ran out of disk space .*ENOSPC.*Free space or choose another directory with --out`,
+      ),
+    );
+    const { results } = await readRun(dir);
+    expect(results.map((r) => r.id).sort()).toEqual([jobs[0]!.id, jobs[1]!.id].sort());
+    // Tried once (a full disk is not retried); nothing after it started.
+    const attempts = readJournal(journal);
+    expect(jobs.map((j) => attempts.get(j.id))).toEqual([1, 1, 1, undefined, undefined]);
   });
 
   it('stops a job that hangs past the time limit of its kind and does not retry it', async () => {

@@ -9,6 +9,7 @@ import { describeSummary } from '../../execute/progress-printer.ts';
 import { expandPlan } from '../../plan/expand-plan.ts';
 import type { JobSpec } from '../../plan/job-spec.ts';
 import { StoreError } from '../../store/store-error.ts';
+import { SweepStop } from '../../execute/sweep-stop.ts';
 import { writePlanFile } from '../../store/write-result.ts';
 import { EXIT, type CliCommand, type CliIo } from '../command.ts';
 import { exitStatusOf, report, sweep } from '../run-local.ts';
@@ -145,7 +146,7 @@ export const runCommand: CliCommand = {
       });
       return await engine({ config: loaded.config, jobs, out, args: parsed }, io);
     } catch (error) {
-      if (!(error instanceof StoreError)) throw error;
+      if (!(error instanceof StoreError || error instanceof SweepStop)) throw error;
       io.err(`midpath run: ${error.code}: ${error.message}`);
       return EXIT.badInput;
     }
