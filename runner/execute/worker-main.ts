@@ -70,9 +70,17 @@ function peakRssBytes(): number {
   return process.resourceUsage().maxRSS * 1024; // getrusage(2) maxrss is in kilobytes
 }
 
-function heapStaysSmall(): boolean {
+/**
+ * Whether this process may run another job: its V8 heap is under half its limit and its
+ * resident set (which also counts WebAssembly memory, such as TF.js's wasm backend, and
+ * native buffers, neither of which ever shrinks) is under the heap limit.
+ */
+function memoryStaysSmall(): boolean {
   const heap = getHeapStatistics();
-  return heap.used_heap_size < REUSE_HEAP_SHARE * heap.heap_size_limit;
+  return (
+    heap.used_heap_size < REUSE_HEAP_SHARE * heap.heap_size_limit &&
+    process.memoryUsage.rss() < heap.heap_size_limit
+  );
 }
 
 async function runRequest(request: RunRequest, abort: AbortController): Promise<void> {
@@ -97,7 +105,7 @@ async function runRequest(request: RunRequest, abort: AbortController): Promise<
       type: 'outcome',
       outcome,
       peakRssBytes: peakRssBytes(),
-      reusable: heapStaysSmall(),
+      reusable: memoryStaysSmall(),
     });
   } catch (error) {
     const message = error instanceof Error ? error.message : String(error);

@@ -20,7 +20,7 @@ import { fileURLToPath, pathToFileURL } from 'node:url';
 import { EndMarkerScanner } from './end-marker.ts';
 import type { JobOutcome } from './job-handler.ts';
 import { LogTail } from './log-tail.ts';
-import { DISK_FULL_CODES } from './sweep-stop.ts';
+import { DISK_FULL_CODES, SweepStop } from './sweep-stop.ts';
 import type { FromWorker, RunRequest } from './worker-protocol.ts';
 import { THREADS_ENV } from './worker-protocol.ts';
 
@@ -28,13 +28,7 @@ import { THREADS_ENV } from './worker-protocol.ts';
  * Why an attempt failed; the runner retries `threw`, `exited` and `killed` only, and a
  * `disk-full` (the job threw ENOSPC or EDQUOT) stops the sweep.
  */
-export type CrashCause =
-  | 'threw'
-  | 'exited'
-  | 'killed'
-  | 'timeout'
-  | 'out-of-memory'
-  | 'disk-full';
+export type CrashCause = 'threw' | 'exited' | 'killed' | 'timeout' | 'out-of-memory' | 'disk-full';
 
 export type AttemptResult =
   | {
@@ -184,13 +178,14 @@ export class WorkerPool {
 
   /** Starts an attempt on an idle worker with the same launch settings, or on a new one. */
   start(launch: WorkerLaunch): WorkerHandle {
+    const logFd = openLog(launch.logPath); // before taking a worker: a throw here leaks none
     const key = JSON.stringify([launch.heapLimitMb, launch.request.threads, launch.env]);
     const at = this.idle.findIndex((worker) => worker.key === key && worker.alive);
     const worker =
       at >= 0
         ? this.idle.splice(at, 1)[0]!
         : new PooledWorker(key, launch, (gone) => this.forget(gone));
-    return runAttempt(worker, launch, (reusable) => this.giveBack(worker, reusable));
+    return runAttempt(worker, launch, logFd, (reusable) => this.giveBack(worker, reusable));
   }
 
   /** Ends every idle worker; later attempts still start fresh ones. */
@@ -213,6 +208,22 @@ export class WorkerPool {
   }
 }
 
+/** Opens a job's log file; a full disk stops the sweep (every later job would need one too). */
+function openLog(path: string): number {
+  try {
+    return openSync(path, 'w');
+  } catch (error) {
+    const code = (error as NodeJS.ErrnoException).code;
+    if (code !== undefined && DISK_FULL_CODES.has(code)) {
+      throw new SweepStop(
+        'disk-full',
+        `cannot create ${path}: ${(error as Error).message}. Free space or choose another directory with --out; results already written are kept, and running again resumes`,
+      );
+    }
+    throw error;
+  }
+}
+
 /**
  * Runs one attempt on `worker`. It resolves once the outcome has arrived and the end marker
  * has come through both pipes (the worker is then handed back), or once the process has
@@ -221,6 +232,7 @@ export class WorkerPool {
 function runAttempt(
   worker: PooledWorker,
   launch: WorkerLaunch,
+  logFd: number,
   handBack: (reusable: boolean) => void,
 ): WorkerHandle {
   const started = performance.now();
@@ -231,16 +243,24 @@ function runAttempt(
   };
   const ended = { stdout: false, stderr: false };
   const tail = new LogTail();
-  const logFd = openSync(launch.logPath, 'w');
   let logOpen = true;
   const write = (text: string): void => {
     if (text === '') return;
     tail.append(text);
-    if (logOpen) writeSync(logFd, text);
+    if (!logOpen) return;
+    try {
+      writeSync(logFd, text);
+    } catch (error) {
+      // The disk filled up (or the file went away) mid-job: keep the tail for result.json,
+      // stop writing the file, and let the job finish; storing its result reports the disk.
+      logOpen = false;
+      closeSync(logFd);
+      tail.append(`\n[log.txt could not be written further: ${(error as Error).message}]\n`);
+    }
   };
   const closeLog = (): void => {
-    if (!logOpen) return;
     for (const stream of ['stdout', 'stderr'] as const) write(scanners[stream].flush());
+    if (!logOpen) return;
     logOpen = false;
     closeSync(logFd);
   };

@@ -68,6 +68,20 @@ describe('worker reuse', () => {
     expect(of(jobs[8]!.id).error?.reason).toContain('time limit exceeded');
   });
 
+  it('retires a worker whose resident memory outgrew its heap limit after a job', async () => {
+    const positions = async (heapLimitMb: number): Promise<(number | undefined)[]> => {
+      const { dir, journal } = tempRun();
+      const jobs = [fakeTrainSpec(0, 'leak'), fakeTrainSpec(1)];
+      await runFakeSweep(dir, journal, jobs, { workers: 1, jobsPerWorker: 10, heapLimitMb });
+      const of = byIdOf((await readRun(dir)).results);
+      return jobs.map((job) => of(job.id).provenance.worker?.job);
+    };
+    // 200 MB kept alive (outside the V8 heap) against a 160 MB limit: the next job gets a
+    // fresh process; under a 2 GB limit the same process goes on.
+    expect(await positions(160)).toEqual([1, 1]);
+    expect(await positions(2048)).toEqual([1, 2]);
+  });
+
   it('with jobsPerWorker 1 gives every job its own process', async () => {
     const { dir, journal } = tempRun();
     const jobs = [0, 1, 2, 3].map((i) => fakeTrainSpec(i));
