@@ -1,6 +1,6 @@
 /**
  * Reusing a worker process must not change any result: a real sweep (TF.js and native
- * training, PCA and SFA baselines, forecast and bridge evaluations) run with a fresh process
+ * training, PCA and SFA baselines, five evaluation suites) run with a fresh process
  * per job and with every job in one process gives identical metrics, bit for bit.
  */
 import { join } from 'node:path';
