@@ -92,6 +92,9 @@ function describeCrash(
   };
 }
 
+/** How much output printed between jobs is kept for the next job's log (the end of it). */
+const STRAY_KEEP_CHARS = 65_536;
+
 /** Where one attempt's output and messages go while it runs. */
 interface AttemptSink {
   output(stream: 'stdout' | 'stderr', text: string): void;
@@ -127,7 +130,7 @@ class PooledWorker {
     const route = (stream: 'stdout' | 'stderr') => (chunk: Buffer) => {
       const text = chunk.toString('utf8');
       if (this.sink) this.sink.output(stream, text);
-      else this.strayOutput += text;
+      else this.keepStray(text);
     };
     this.child.stdout?.on('data', route('stdout'));
     this.child.stderr?.on('data', route('stderr'));
@@ -154,9 +157,9 @@ class PooledWorker {
     this.sink = undefined;
   }
 
-  /** Output that arrives after an attempt's end marker is kept for the next attempt. */
+  /** Output that arrives after an attempt's end marker is kept (its end) for the next attempt. */
   keepStray(text: string): void {
-    this.strayOutput += text;
+    this.strayOutput = (this.strayOutput + text).slice(-STRAY_KEEP_CHARS);
   }
 
   retire(): void {
