@@ -3,6 +3,7 @@
  * failed and why, compute time, and where the numbers came from (provenance).
  */
 import { compareSettingValues, formatSettingValue } from '../aggregate.ts';
+import { formatDuration } from '../format-number.ts';
 import type { LoadedRun } from '../load-run.ts';
 import type { JobResult } from '../../store/result.ts';
 
@@ -32,7 +33,8 @@ export interface OverviewModel {
     attempts: number;
   }[];
   compute: { kind: string; jobs: number; seconds: string; hours: string }[];
-  computeTotal: { seconds: string; hours: string };
+  /** `readable`: the total for the header, e.g. "13.9 s" or "2.25 h". */
+  computeTotal: { seconds: string; hours: string; readable: string };
   provenance: { name: string; values: string }[];
   problems: { code: string; file: string; message: string }[];
 }
@@ -77,7 +79,8 @@ function computeOf(results: readonly JobResult[]): Pick<OverviewModel, 'compute'
     const mine = results.filter((r) => r.kind === kind);
     return { kind, jobs: mine.length, ...format(mine.reduce((a, r) => a + seconds(r), 0)) };
   });
-  return { compute, computeTotal: format(results.reduce((a, r) => a + seconds(r), 0)) };
+  const total = results.reduce((a, r) => a + seconds(r), 0);
+  return { compute, computeTotal: { ...format(total), readable: formatDuration(total) } };
 }
 
 function provenanceOf(results: readonly JobResult[]): OverviewModel['provenance'] {
