@@ -1,6 +1,6 @@
 /** `midpath table`: the tidy table of a run in one of the registered formats. */
 import { tableFormats } from './formats/index.ts';
-import { loadRun } from './load-run.ts';
+import { earlierResultsNote, loadRun } from './load-run.ts';
 import { ReportError, suggestNames } from './report-error.ts';
 import { buildTidyTable } from './tidy-table.ts';
 
@@ -8,6 +8,8 @@ export interface TableOptions {
   format: string;
   /** Keep only these metrics (exact names); empty keeps all. */
   metrics?: readonly string[];
+  /** Receives notes for the reader (results of an earlier plan left out). */
+  onNote?: (note: string) => void;
 }
 
 /** Renders the tidy table of the run in `dir`; throws ReportError on bad options. */
@@ -21,6 +23,8 @@ export async function renderTable(dir: string, options: TableOptions): Promise<s
     });
   }
   const run = await loadRun(dir);
+  const note = earlierResultsNote(run);
+  if (note !== null) options.onNote?.(note);
   const wanted = options.metrics ?? [];
   const known = [...new Set(run.summaries.map((s) => s.metric))].sort();
   for (const metric of wanted) {

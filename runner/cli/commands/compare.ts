@@ -45,10 +45,12 @@ async function runCompare(args: string[], io: CliIo): Promise<number> {
       parsed.values.tolerance === undefined
         ? DEFAULT_COMPARE.tolerance
         : parseTolerance(parsed.values.tolerance);
-    const comparison = await compareRuns(resolve(io.cwd, base), resolve(io.cwd, candidate), {
-      ...DEFAULT_COMPARE,
-      tolerance,
-    });
+    const comparison = await compareRuns(
+      resolve(io.cwd, base),
+      resolve(io.cwd, candidate),
+      { ...DEFAULT_COMPARE, tolerance },
+      (note) => io.err(`note: ${note}`),
+    );
     io.out(
       parsed.values.json === true
         ? JSON.stringify(comparison, null, 2)

@@ -40,6 +40,7 @@ async function runTable(args: string[], io: CliIo): Promise<number> {
       await renderTable(resolve(io.cwd, dir), {
         format,
         metrics: parsed.values.metric ?? [],
+        onNote: (note) => io.err(`note: ${note}`),
       }),
     );
     return EXIT.ok;

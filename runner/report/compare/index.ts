@@ -1,5 +1,5 @@
 /** `midpath compare` over two results directories. */
-import { loadRun } from '../load-run.ts';
+import { earlierResultsNote, loadRun } from '../load-run.ts';
 import { ReportError } from '../report-error.ts';
 import {
   compareSummaries,
@@ -22,8 +22,13 @@ export async function compareRuns(
   baseDir: string,
   candidateDir: string,
   options: CompareOptions = DEFAULT_COMPARE,
+  onNote: (note: string) => void = () => undefined,
 ): Promise<Comparison> {
   const [base, candidate] = await Promise.all([loadRun(baseDir), loadRun(candidateDir)]);
+  for (const run of [base, candidate]) {
+    const note = earlierResultsNote(run);
+    if (note !== null) onNote(note);
+  }
   const comparison = compareSummaries(base.summaries, candidate.summaries, options);
   if (comparison.rows.length === 0) {
     throw new ReportError({

@@ -37,6 +37,8 @@ export interface OverviewModel {
   computeTotal: { seconds: string; hours: string; readable: string };
   provenance: { name: string; values: string }[];
   problems: { code: string; file: string; message: string }[];
+  /** Results of jobs the current plan no longer lists, left out of the report (0: none). */
+  earlierResults: number;
 }
 
 function distinct(values: Iterable<string>): string[] {
@@ -134,5 +136,6 @@ export function buildOverview(run: LoadedRun): OverviewModel {
     ...computeOf(results),
     provenance: provenanceOf(results),
     problems: run.problems.map((p) => ({ code: p.code, file: p.file, message: p.message })),
+    earlierResults: run.earlierResults,
   };
 }
