@@ -36,6 +36,8 @@ export const CONFIG_ERROR_CODES = {
     'A path is swept twice (in `axes` and `together`, twice in a group, or nested in another swept path).',
   'together-length': 'The paths of a `together` group list different numbers of values.',
   'too-many-jobs': 'The sweep expands to more jobs than `run.maxJobs` allows.',
+  'episodes-too-short':
+    'The episodes of a built-in source (`data.steps` long) are shorter than the longest forecast horizon or bridge the evaluation asks for.',
   'bad-override': 'A `--set path=value` override is malformed.',
 } as const;
 

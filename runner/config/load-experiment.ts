@@ -4,6 +4,7 @@ import { checkDataRules, checkEncoderRules, checkMethodRules } from './check-sem
 import { checkSweep } from './check-sweep.ts';
 import { sortConfigErrors, type ConfigError } from './config-error.ts';
 import { countJobs } from './count-jobs.ts';
+import { checkEpisodeLength } from './check-episode-length.ts';
 import { mapSchemaErrors, type Locate } from './map-schema-errors.ts';
 import { resolveMethods } from './resolve-methods.ts';
 import { readWithBases } from './resolve-extends.ts';
@@ -106,6 +107,8 @@ function loadNow(file: string, options: LoadOptions): LoadResult {
   } as unknown as ExperimentConfig;
   const tooLarge = checkPlanLimit(config, locate);
   if (tooLarge.length > 0) return { ok: false, errors: tooLarge };
+  const tooShort = checkEpisodeLength(config, locate);
+  if (tooShort.length > 0) return { ok: false, errors: tooShort };
   return { ok: true, config, file: absPath, baseDir: dirname(absPath) };
 }
 

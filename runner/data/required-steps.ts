@@ -5,9 +5,17 @@
  */
 import type { EvalConfig } from '../config/types.ts';
 
-/** Steps every episode must have for `evalConfig`; at least 2 (one positive pair). */
-export function requiredSteps(evalConfig: Pick<EvalConfig, 'horizons' | 'waypoints'>): number {
-  const forecast = Math.max(0, ...evalConfig.horizons) + 1;
-  const bridge = Math.max(0, ...evalConfig.waypoints) + 2;
-  return Math.max(2, forecast, bridge);
+/**
+ * Steps every episode must have for `evalConfig`; at least 2 (one positive pair). Horizons
+ * count when a suite that forecasts runs (forecast, calibration), waypoints when one that
+ * bridges runs (bridge, calibration); without `suites`, both count.
+ */
+export function requiredSteps(
+  evalConfig: Pick<EvalConfig, 'horizons' | 'waypoints'> & Partial<Pick<EvalConfig, 'suites'>>,
+): number {
+  const runs = (...names: EvalConfig['suites']): boolean =>
+    evalConfig.suites === undefined || names.some((n) => evalConfig.suites?.includes(n));
+  const horizons = runs('forecast', 'calibration') ? evalConfig.horizons : [];
+  const waypoints = runs('bridge', 'calibration') ? evalConfig.waypoints : [];
+  return Math.max(2, ...horizons.map((h) => h + 1), ...waypoints.map((t) => t + 2));
 }

@@ -119,13 +119,13 @@ describe('midpath inspect', () => {
     expect(io.stdout.join('')).toBe('');
   });
 
-  it('stops when episodes are shorter than the evaluation needs', async () => {
+  it('stops when episodes are shorter than the evaluation needs, pointing at data.steps', async () => {
     const file = writeExperiment(
       'data: { episodes: 5, steps: 6 }\neval: { horizons: [1, 8], waypoints: [1] }\n',
     );
     const io = bufferIo(root);
     expect(await main(['inspect', file], io)).toBe(2);
-    expect(io.stderr.join('')).toContain('episode-too-short');
+    expect(io.stderr.join('')).toMatch(/:1:\d+ {2}episodes-too-short {2}expected data.steps ≥ 9/);
   });
 
   it('reports config errors and usage errors with exit 2', async () => {

@@ -7,24 +7,11 @@
 import { writeFile } from 'node:fs/promises';
 import { join } from 'node:path';
 import { loadDataset } from '../../data/load-dataset.ts';
-import type { EvalConfig } from '../../config/types.ts';
+import { requiredSteps } from '../../data/required-steps.ts';
 import { assertInputFilesUnchanged } from '../../plan/input-files.ts';
 import type { EvalJobSpec } from '../../plan/job-spec.ts';
 import type { JobHandler } from '../job-handler.ts';
 import { loadRepresentation } from './representation-files.ts';
-
-/** The longest chain the step-unit tasks need, in steps (jump chains are redrawn to fit). */
-export function requiredSteps(config: EvalConfig): number {
-  const horizons =
-    config.suites.includes('forecast') || config.suites.includes('calibration')
-      ? config.horizons
-      : [];
-  const spans =
-    config.suites.includes('bridge') || config.suites.includes('calibration')
-      ? config.waypoints.map((t) => t + 1)
-      : [];
-  return Math.max(2, ...horizons.map((h) => h + 1), ...spans.map((s) => s + 1));
-}
 
 /** Runs one evaluation; artifacts land in `<suite>.json` files under ctx.artifactsDir. */
 export const evaluateJob: JobHandler<EvalJobSpec> = async (spec, ctx) => {
