@@ -6,7 +6,7 @@
  * A plugin is digested by its entry module only; modules it imports are not followed.
  */
 import { createHash } from 'node:crypto';
-import { readFileSync } from 'node:fs';
+import { readFileSync, statSync } from 'node:fs';
 import { isAbsolute, resolve } from 'node:path';
 import type { ExperimentConfig, MethodConfig } from '../config/types.ts';
 import { METHOD_INPUTS } from '../config/method-inputs.ts';
@@ -46,6 +46,28 @@ export function filesReadBy(method: MethodConfig, cfg: ExperimentConfig): string
 }
 
 /**
+ * Digests a worker has already computed, by full path, with the file's size and modification
+ * time then: a reused worker hashes a large data file once, not once per job, and hashes it
+ * again as soon as either changes.
+ */
+const seen = new Map<string, { size: number; mtimeMs: number; digest: string }>();
+
+function currentDigest(baseDir: string, path: string): string {
+  const full = isAbsolute(path) ? path : resolve(baseDir, path);
+  let stat;
+  try {
+    stat = statSync(full);
+  } catch {
+    return 'unreadable';
+  }
+  const known = seen.get(full);
+  if (known && known.size === stat.size && known.mtimeMs === stat.mtimeMs) return known.digest;
+  const digest = fileDigester(baseDir)(path);
+  seen.set(full, { size: stat.size, mtimeMs: stat.mtimeMs, digest });
+  return digest;
+}
+
+/**
  * Throws when a file the job reads no longer has the contents its id was planned with, so
  * a result is never kept under an id that names other data. The message says how to fix it.
  */
@@ -54,9 +76,8 @@ export function assertInputFilesUnchanged(
   baseDir: string,
 ): void {
   if (inputFiles === undefined) return;
-  const now = fileDigester(baseDir);
   for (const [path, planned] of Object.entries(inputFiles)) {
-    const digest = now(path);
+    const digest = currentDigest(baseDir, path);
     if (digest === planned) continue;
     throw new Error(
       `${path} changed after the plan was made (sha256 ${planned.slice(0, 12)}… then, ${digest.slice(0, 12)}… now); run again so the jobs that read it are planned with its new contents`,
