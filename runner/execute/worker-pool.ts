@@ -134,7 +134,10 @@ class PooledWorker {
     };
     this.child.stdout?.on('data', route('stdout'));
     this.child.stderr?.on('data', route('stderr'));
-    this.child.on('message', (received: FromWorker) => this.sink?.message(received));
+    this.child.on('message', (received: FromWorker) => {
+      if (this.sink) this.sink.message(received);
+      else if (received.type === 'log') this.keepStray(`${received.line}\n`);
+    });
     this.child.on('error', (error) =>
       this.sink?.output('stderr', `worker error: ${error.message}\n`),
     );

@@ -1,6 +1,6 @@
 /** The worker pool on its own: what happens when a job's log cannot be written. */
 import { execFileSync } from 'node:child_process';
-import { mkdtempSync } from 'node:fs';
+import { mkdtempSync, readFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { describe, expect, it } from 'vitest';
@@ -47,6 +47,25 @@ describe('WorkerPool', () => {
       }
     },
   );
+
+  it('keeps what a worker prints between jobs for the next job, under a note', async () => {
+    const dir = mkdtempSync(join(tmpdir(), 'midpath-pool-logs-'));
+    const pool = new WorkerPool({ jobsPerWorker: 5 });
+    try {
+      const late = await pool.start(launch(join(dir, 'late.txt'), 'late')).result;
+      await new Promise((wake) => setTimeout(wake, 600)); // the worker is idle when it prints
+      const next = await pool.start(launch(join(dir, 'next.txt'), 'ok')).result;
+      if (late.kind !== 'outcome' || next.kind !== 'outcome') throw new Error('both should finish');
+      expect(next.workerPid).toBe(late.workerPid);
+      const log = readFileSync(join(dir, 'next.txt'), 'utf8');
+      expect(log).toMatch(/^\[worker \d+ printed this after its previous job ended\]\n/);
+      expect(log).toContain('late line of');
+      expect(log).toContain('late log message of');
+      expect(readFileSync(join(dir, 'late.txt'), 'utf8')).not.toContain('late line');
+    } finally {
+      pool.close();
+    }
+  });
 
   it('refuses to start a job whose log cannot be created, without starting a worker', () => {
     const children = (): string =>

@@ -117,6 +117,7 @@ describe('worker reuse', () => {
     // The 'late' job printed 200 ms after finishing, while job 2 (800 ms long) ran.
     expect(log(1)).not.toContain('late line');
     expect(log(2)).toContain(`late line of ${jobs[1]!.id}`);
+    expect(log(2)).toContain(`late log message of ${jobs[1]!.id}`);
     // 8 MB printed just before the outcome: all of it lands in the loud job's own log.
     expect(log(3).length).toBeGreaterThan(8e6);
     expect(log(3)).toContain(`last line of ${jobs[3]!.id}`);
