@@ -32,7 +32,7 @@ interface Combination {
   eval: EvalConfig;
   /** The axis values that made it, for the message ('' for the file's own values). */
   label: string;
-  /** Where in the file the first relevant axis of the combination is (empty: none). */
+  /** Where in the file the first relevant axis value of the combination is (empty: none). */
   axisPath: (string | number)[];
 }
 
@@ -63,8 +63,10 @@ function* combinations(config: ExperimentConfig): Generator<Combination> {
         writeAtPath(out, path.split('.'), value);
         parts.push(`${path} = ${JSON.stringify(value)}`);
         if (axisPath.length === 0) {
+          // The offending value in its list, e.g. sweep.axes["data.steps"][1].
           const group = config.sweep.together.findIndex((g) => path in g);
-          axisPath = group >= 0 ? ['sweep', 'together', group, path] : ['sweep', 'axes', path];
+          axisPath =
+            group >= 0 ? ['sweep', 'together', group, path, index] : ['sweep', 'axes', path, index];
         }
       }
     });
@@ -84,7 +86,7 @@ export function checkEpisodeLength(config: ExperimentConfig, locate: Locate): Co
     const needed = requiredSteps(combo.eval);
     if (combo.data.steps >= needed) continue;
     const inSweep = combo.label !== '';
-    const at = inSweep ? locate(combo.axisPath, 'key') : locate(['data', 'steps'], 'key');
+    const at = inSweep ? locate(combo.axisPath, 'value') : locate(['data', 'steps'], 'key');
     const longest = Math.max(0, ...combo.eval.horizons);
     const widest = Math.max(0, ...combo.eval.waypoints);
     return [

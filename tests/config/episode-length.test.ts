@@ -44,7 +44,7 @@ describe('episodes too short for the evaluation', () => {
     ].join('\n');
     expect(await codesOf(`${ok}\n`)).toEqual([]);
     const bad = ok.replace('[[2], [20]]', '[[20], [2]]');
-    expect(await codesOf(`${bad}\n`)).toEqual(['episodes-too-short 4:9']);
+    expect(await codesOf(`${bad}\n`)).toEqual(['episodes-too-short 4:24']);
   });
 
   it('leaves a user file to its own check when it loads', async () => {

@@ -59,7 +59,7 @@ const cases: [string, ConfigErrorCode, number, number, string?][] = [
   ['duplicate-axis-together.yaml', 'duplicate-axis', 6, 7],
   ['duplicate-axis-overlap.yaml', 'duplicate-axis', 6, 5],
   ['episodes-too-short.yaml', 'episodes-too-short', 4, 3],
-  ['episodes-too-short-axis.yaml', 'episodes-too-short', 8, 5],
+  ['episodes-too-short-axis.yaml', 'episodes-too-short', 8, 22],
   ['together-length.yaml', 'together-length', 5, 7],
   ['too-many-jobs-limit.yaml', 'too-many-jobs', 4, 1],
   ['too-many-jobs-default.yaml', 'too-many-jobs', 2, 1],
