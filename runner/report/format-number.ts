@@ -62,11 +62,3 @@ export function formatMeanInterval(
       : formatValue(spread ? half : 0, Math.min(5, decimals));
   return { mean: m, interval: h, text: `${m} ${plusMinus} ${h}` };
 }
-
-/** A duration for people: "42.0 s", "3.5 min", "2.25 h" (seconds below 100 s, minutes below 90 min). */
-export function formatDuration(seconds: number): string {
-  if (!Number.isFinite(seconds) || seconds < 0) return '–';
-  if (seconds < 100) return `${seconds.toFixed(1)} s`;
-  if (seconds < 5400) return `${(seconds / 60).toFixed(1)} min`;
-  return `${(seconds / 3600).toFixed(2)} h`;
-}

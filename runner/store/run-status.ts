@@ -35,6 +35,8 @@ export interface RunStatus {
   /** Seconds to finish: remaining work ÷ jobs running now (1 when none); null when unmeasured. */
   etaSeconds: number | null;
   problems: StoreProblem[];
+  /** Results of jobs plan.json does not list (an earlier version of the experiment); not counted. */
+  earlierResults: number;
 }
 
 /** What a scheduler says about a job without a kept result (see execute/slurm/scheduler-view.ts). */
@@ -78,6 +80,7 @@ export async function readRunStatus(
 ): Promise<RunStatus> {
   const { plan, results, problems } = await readRun(dir);
   const byId = new Map(results.map((r) => [r.id, r]));
+  const planned = new Set(plan?.jobs.map((j) => j.id) ?? []);
   const jobs = plan
     ? plan.jobs.map((j) => ({ id: j.id, kind: j.kind }))
     : results.map((r) => ({ id: r.id, kind: r.kind }));
@@ -125,5 +128,6 @@ export async function readRunStatus(
     costs,
     etaSeconds: estimate(costs, counts.running),
     problems,
+    earlierResults: plan ? results.filter((r) => !planned.has(r.id)).length : 0,
   };
 }

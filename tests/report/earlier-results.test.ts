@@ -44,7 +44,7 @@ describe('results of an earlier plan', () => {
     expect(run.results.some((r) => r.spec.seed === 2)).toBe(true);
   });
 
-  it('are named in a note by table, compare and the HTML report', async () => {
+  it('are named in a note by table, compare, status and the HTML report', async () => {
     const { dir, dropped } = runWithShrunkPlan();
     const table = bufferIo(dir);
     expect(await main(['table', dir, '--format', 'csv'], table)).toBe(0);
@@ -54,6 +54,11 @@ describe('results of an earlier plan', () => {
     const compare = bufferIo(dir);
     await main(['compare', dir, dir], compare);
     expect(compare.stderr.join('')).toContain(`${dropped} results of jobs that plan.json`);
+    const status = bufferIo(dir);
+    await main(['status', dir], status);
+    expect(status.stdout.join('')).toContain(
+      `${dropped} result(s) of jobs that plan.json no longer lists`,
+    );
     const report = bufferIo(dir);
     expect(await main(['report', dir], report)).toBe(0);
     const html = readFileSync(join(dir, 'report.html'), 'utf8');

@@ -1,9 +1,5 @@
 import { describe, expect, it } from 'vitest';
-import {
-  formatDuration,
-  formatMeanInterval,
-  formatValue,
-} from '../../runner/report/format-number.ts';
+import { formatMeanInterval, formatValue } from '../../runner/report/format-number.ts';
 
 describe('formatValue', () => {
   it('shows three significant digits, exponents only for very small or large values', () => {
@@ -27,17 +23,5 @@ describe('formatMeanInterval', () => {
     expect(formatMeanInterval(2.5, 2.5 - 1e-15, 2.5 + 1e-15).text).toBe('2.50 ± 0.00');
     expect(formatMeanInterval(2.1e-8, 1e-8, 3.2e-8).text).toBe('2.10e-8 ± 1.1e-8');
     expect(formatMeanInterval(0.3, Number.NaN, Number.NaN).text).toBe('0.300');
-  });
-});
-
-describe('formatDuration', () => {
-  it('picks seconds, minutes or hours so the figure stays short (1 min = 60 s, 1 h = 3600 s)', () => {
-    expect(formatDuration(13.94)).toBe('13.9 s');
-    expect(formatDuration(99.9)).toBe('99.9 s');
-    expect(formatDuration(100)).toBe('1.7 min');
-    expect(formatDuration(5399)).toBe('90.0 min');
-    expect(formatDuration(5400)).toBe('1.50 h');
-    expect(formatDuration(8100)).toBe('2.25 h');
-    expect(formatDuration(Number.NaN)).toBe('–');
   });
 });

@@ -43,6 +43,11 @@ export function formatStatus(status: RunStatus, dir: string): string {
     `${status.experiment ?? '(no plan.json)'} — ${dir}`,
     `${status.total} jobs: ${counts.done} done, ${counts.running} running, ${counts.failed} failed, ${counts.diverged} diverged, ${counts.pending} pending`,
   ];
+  if (status.earlierResults > 0) {
+    lines.push(
+      `${status.earlierResults} result(s) of jobs that plan.json no longer lists (an earlier version of the experiment) are not counted`,
+    );
+  }
   for (const [kind, cost] of Object.entries(status.costs)) {
     const mean =
       cost.meanSeconds === null ? 'not yet measured' : `${formatDuration(cost.meanSeconds)} each`;

@@ -3,7 +3,7 @@
  * failed and why, compute time, and where the numbers came from (provenance).
  */
 import { compareSettingValues, formatSettingValue } from '../aggregate.ts';
-import { formatDuration } from '../format-number.ts';
+import { formatDuration } from '../../execute/progress-printer.ts';
 import type { LoadedRun } from '../load-run.ts';
 import type { JobResult } from '../../store/result.ts';
 
