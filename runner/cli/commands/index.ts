@@ -7,6 +7,7 @@ import { reportCommand } from './report.ts';
 import { runCommand } from './run.ts';
 import { statusCommand } from './status.ts';
 import { tableCommand } from './table.ts';
+import { pruneCommand } from './prune.ts';
 
 /**
  * The command map: adding a command means adding one file under `commands/` and one entry
@@ -21,4 +22,5 @@ export const commands: CliCommand[] = [
   reportCommand,
   tableCommand,
   compareCommand,
+  pruneCommand,
 ];
