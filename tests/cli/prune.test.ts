@@ -1,28 +1,21 @@
 /** `midpath prune`: removes exactly the job directories the current plan does not list. */
-import { existsSync, readdirSync, readFileSync, rmSync, writeFileSync } from 'node:fs';
+import { existsSync, readdirSync, rmSync, writeFileSync } from 'node:fs';
 import { hostname } from 'node:os';
 import { join } from 'node:path';
 import { afterEach, describe, expect, it } from 'vitest';
 import { main } from '../../runner/cli/main.ts';
-import type { PlanFile } from '../../runner/store/result.ts';
 import { readRun } from '../../runner/store/read-run.ts';
 import { bufferIo } from '../helpers/cli-io.ts';
-import { makeFixtureRun } from '../report/fixture-run.ts';
+import { makeRunWithShrunkPlan } from '../report/fixture-run.ts';
 
 let cleanup = (): void => undefined;
 afterEach(() => cleanup());
 
-/** A fixture run whose plan.json lists only the jobs of seeds 0 and 1. */
+/** The shrunk-plan fixture, removed after each test. */
 function runWithShrunkPlan(): { dir: string; planned: string[]; dropped: string[] } {
-  const fixture = makeFixtureRun({ experiment: 'greenhouse', seeds: [0, 1, 2] });
-  cleanup = fixture.cleanup;
-  const path = join(fixture.dir, 'plan.json');
-  const plan = JSON.parse(readFileSync(path, 'utf8')) as PlanFile;
-  const kept = plan.jobs.filter((job) => job.seed !== 2);
-  writeFileSync(path, JSON.stringify({ ...plan, jobs: kept }));
-  const planned = kept.map((job) => job.id);
-  const onDisk = readdirSync(join(fixture.dir, 'jobs'));
-  return { dir: fixture.dir, planned, dropped: onDisk.filter((id) => !planned.includes(id)) };
+  const run = makeRunWithShrunkPlan();
+  cleanup = run.cleanup;
+  return run;
 }
 
 describe('midpath prune', () => {

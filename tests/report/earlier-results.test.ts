@@ -3,32 +3,28 @@
  * stay on disk but are left out of the report, `table` and `compare`, so a mean never mixes
  * seeds run under two versions of an experiment.
  */
-import { readFileSync, rmSync, writeFileSync } from 'node:fs';
+import { readFileSync, rmSync } from 'node:fs';
 import { join } from 'node:path';
 import { afterEach, describe, expect, it } from 'vitest';
 import { main } from '../../runner/cli/main.ts';
 import { loadRun } from '../../runner/report/load-run.ts';
-import type { PlanFile } from '../../runner/store/result.ts';
 import { bufferIo } from '../helpers/cli-io.ts';
-import { makeFixtureRun } from './fixture-run.ts';
+import { makeRunWithShrunkPlan } from './fixture-run.ts';
 
 let cleanup = (): void => undefined;
 afterEach(() => cleanup());
 
-/** A fixture run whose plan.json is rewritten to list only the jobs of seeds 0 and 1. */
-function runWithShrunkPlan(): { dir: string; dropped: number } {
-  const fixture = makeFixtureRun({ experiment: 'greenhouse', seeds: [0, 1, 2] });
-  cleanup = fixture.cleanup;
-  const path = join(fixture.dir, 'plan.json');
-  const plan = JSON.parse(readFileSync(path, 'utf8')) as PlanFile;
-  const kept = plan.jobs.filter((job) => job.seed !== 2);
-  writeFileSync(path, JSON.stringify({ ...plan, jobs: kept }));
-  return { dir: fixture.dir, dropped: plan.jobs.length - kept.length };
+/** The shrunk-plan fixture, removed after each test. */
+function runWithShrunkPlan(): { dir: string; planned: string[]; dropped: string[] } {
+  const run = makeRunWithShrunkPlan();
+  cleanup = run.cleanup;
+  return run;
 }
 
 describe('results of an earlier plan', () => {
   it('are left out of the aggregation, counted, and every summary rests on the planned seeds only', async () => {
-    const { dir, dropped } = runWithShrunkPlan();
+    const { dir, dropped: droppedIds } = runWithShrunkPlan();
+    const dropped = droppedIds.length;
     const run = await loadRun(dir);
     expect(dropped).toBeGreaterThan(0);
     expect(run.earlierResults).toBe(dropped);
@@ -45,7 +41,8 @@ describe('results of an earlier plan', () => {
   });
 
   it('are named in a note by table, compare, status and the HTML report', async () => {
-    const { dir, dropped } = runWithShrunkPlan();
+    const { dir, dropped: droppedIds } = runWithShrunkPlan();
+    const dropped = droppedIds.length;
     const table = bufferIo(dir);
     expect(await main(['table', dir, '--format', 'csv'], table)).toBe(0);
     expect(table.stderr.join('')).toContain(
