@@ -111,7 +111,9 @@ export async function sweep(
 
 export async function report(out: string, io: CliIo): Promise<void> {
   try {
-    const path = await writeReport(out);
+    const path = await writeReport(out, {
+      onNote: (note) => io.err(`note: ${note} (\`midpath prune\` lists them)`),
+    });
     io.out(`Report: ${relative(io.cwd, path) || path}`);
   } catch (error) {
     io.err(

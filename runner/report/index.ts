@@ -6,14 +6,22 @@ import { mkdir, rename, writeFile } from 'node:fs/promises';
 import { dirname, join, resolve } from 'node:path';
 import { buildReportModel } from './html/report-model.ts';
 import { renderHtml } from './html/render-html.ts';
-import { loadRun } from './load-run.ts';
+import { earlierResultsNote, loadRun } from './load-run.ts';
 
 export { renderTable, type TableOptions } from './write-table.ts';
 export { aggregateMetrics, type MetricSummary } from './aggregate.ts';
 
-/** Renders the HTML report of the run in `dir` to a string (no file written). */
-export async function renderReport(dir: string): Promise<string> {
+/**
+ * Renders the HTML report of the run in `dir` to a string (no file written); `onNote`
+ * hears when results of an earlier plan were left out.
+ */
+export async function renderReport(
+  dir: string,
+  onNote: (note: string) => void = () => undefined,
+): Promise<string> {
   const run = await loadRun(resolve(dir));
+  const note = earlierResultsNote(run);
+  if (note !== null) onNote(note);
   return renderHtml(await buildReportModel(run));
 }
 
@@ -24,10 +32,10 @@ export async function renderReport(dir: string): Promise<string> {
  */
 export async function writeReport(
   dir: string,
-  options: { htmlPath?: string } = {},
+  options: { htmlPath?: string; onNote?: (note: string) => void } = {},
 ): Promise<string> {
   const path = resolve(options.htmlPath ?? join(dir, 'report.html'));
-  const html = await renderReport(dir);
+  const html = await renderReport(dir, options.onNote);
   await mkdir(dirname(path), { recursive: true });
   const temporary = `${path}.${process.pid}.tmp`;
   await writeFile(temporary, html);

@@ -58,6 +58,7 @@ describe('results of an earlier plan', () => {
     );
     const report = bufferIo(dir);
     expect(await main(['report', dir], report)).toBe(0);
+    expect(report.stderr.join('')).toContain(`${dropped} results of jobs that plan.json`);
     const html = readFileSync(join(dir, 'report.html'), 'utf8');
     expect(html).toContain(`${dropped} result(s) of jobs that the current plan no longer lists`);
   });

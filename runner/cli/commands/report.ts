@@ -31,9 +31,10 @@ async function runReport(args: string[], io: CliIo): Promise<number> {
   }
   return withReportErrors(io, async () => {
     const html = parsed.values.html;
+    const onNote = (note: string): void => io.err(`note: ${note}`);
     const path = await writeReport(
       resolve(io.cwd, dir),
-      html === undefined ? {} : { htmlPath: resolve(io.cwd, html) },
+      html === undefined ? { onNote } : { htmlPath: resolve(io.cwd, html), onNote },
     );
     io.out(path);
     return EXIT.ok;
