@@ -2,7 +2,8 @@
  * Runner benchmark, printed as a table with each figure beside its reference:
  *  1. parallel efficiency — throughput of 2 workers over 1 on a sweep of equal CPU-bound
  *     jobs (fake handlers spinning for a fixed time; target ≥ 1.8×, ideal 2×);
- *  2. runner overhead on a 10,000-job plan, jobs themselves excluded: expanding the plan,
+ *  2. worker reuse — instant jobs with a fresh process each against reused workers;
+ *  3. runner overhead on a 10,000-job plan, jobs themselves excluded: expanding the plan,
  *     the resume scan of a finished run (runSweep with every result kept), reading the run,
  *     writing results (atomic, fsync) with their index rows, and rebuilding the index
  *     (target well under 1 s for expand, resume scan and index rebuild).
@@ -28,6 +29,7 @@ const quick = process.argv.includes('--quick');
 const JOBS = quick ? 1000 : 10_000;
 const SPIN_MS = quick ? 1500 : 4000;
 const SPIN_JOBS = quick ? 4 : 8;
+const REUSE_JOBS = quick ? 20 : 40;
 const handlers = fileURLToPath(
   new URL('../tests/fixtures/execute/fake-handlers.ts', import.meta.url),
 );
@@ -52,7 +54,12 @@ async function measure(step: () => unknown): Promise<{ wall: number; cpu: number
   return { wall: seconds(start), cpu: cpuSeconds(cpu) };
 }
 
-async function timeSweep(jobs: JobSpec[], workers: number, dir: string): Promise<number> {
+async function timeSweep(
+  jobs: JobSpec[],
+  workers: number,
+  dir: string,
+  jobsPerWorker = 20,
+): Promise<number> {
   const ledger = new RunLedger(dir, { runId: `bench-${workers}` });
   const start = performance.now();
   await runSweep(jobs, {
@@ -61,6 +68,7 @@ async function timeSweep(jobs: JobSpec[], workers: number, dir: string): Promise
     cores: workers,
     fresh: true,
     retries: 0,
+    jobsPerWorker,
     timeLimitMs: () => 600_000,
     env: { MIDPATH_HANDLERS_MODULE: handlers },
   });
@@ -84,6 +92,25 @@ async function benchParallel(): Promise<void> {
     `${two.toFixed(2)} s`,
     `${(SPIN_JOBS / two).toFixed(3)} jobs/s`,
     `${speedup.toFixed(2)}× (target ≥ 1.80×, ideal 2.00×)`,
+  ]);
+}
+
+/** Instant jobs on 2 workers: a fresh process per job against reused workers (the default). */
+async function benchReuse(): Promise<void> {
+  const jobs = Array.from({ length: REUSE_JOBS }, (_, i) => fakeTrainSpec(1000 + i));
+  const fresh = await timeSweep(jobs, 2, join(root, 'fresh'), 1);
+  const reused = await timeSweep(jobs, 2, join(root, 'reused'), 20);
+  rows.push([
+    `${REUSE_JOBS} instant jobs, 2 workers, fresh process each`,
+    `${fresh.toFixed(2)} s`,
+    `${(REUSE_JOBS / fresh).toFixed(2)} jobs/s`,
+    'reference',
+  ]);
+  rows.push([
+    `same, workers reused (run.jobsPerWorker 20)`,
+    `${reused.toFixed(2)} s`,
+    `${(REUSE_JOBS / reused).toFixed(2)} jobs/s`,
+    `${(fresh / reused).toFixed(2)}× faster; ${((1000 * (fresh - reused) * 2) / REUSE_JOBS).toFixed(0)} ms saved per job`,
   ]);
 }
 
@@ -175,6 +202,7 @@ console.log(
 );
 try {
   await benchParallel();
+  await benchReuse();
   await benchOverhead();
   printTable();
 } finally {
