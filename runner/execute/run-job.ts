@@ -1,7 +1,7 @@
 /**
- * Runs one job to a kept result: attempts in pooled workers (worker-pool.ts), retries of crashes (never of a
- * divergence, a time-out or running out of memory, which would only repeat), and the
- * result record with its provenance.
+ * Runs one job to a kept result: attempts in pooled workers (worker-pool.ts), retries of
+ * crashes (never of a divergence, a time-out or running out of memory, which would only
+ * repeat; a full disk stops the sweep), and the result record with its provenance.
  */
 import type { JobSpec } from '../plan/job-spec.ts';
 import type { BuildFacts } from './build-facts.ts';
