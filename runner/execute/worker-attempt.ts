@@ -185,6 +185,8 @@ class WorkerAttempt implements AttemptSink {
 
   /** Kills the worker now (second Ctrl-C); the attempt resolves as `cancelled`. */
   cancel(): void {
+    // Once settled, the process may already serve another attempt: leave it alone.
+    if (this.settled) return;
     this.cancelled = true;
     this.host.retire();
   }
