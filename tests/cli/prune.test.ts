@@ -2,25 +2,15 @@
 import { existsSync, readdirSync, rmSync, writeFileSync } from 'node:fs';
 import { hostname } from 'node:os';
 import { join } from 'node:path';
-import { afterEach, describe, expect, it } from 'vitest';
+import { describe, expect, it } from 'vitest';
 import { main } from '../../runner/cli/main.ts';
 import { readRun } from '../../runner/store/read-run.ts';
 import { bufferIo } from '../helpers/cli-io.ts';
-import { makeRunWithShrunkPlan } from '../report/fixture-run.ts';
-
-let cleanup = (): void => undefined;
-afterEach(() => cleanup());
-
-/** The shrunk-plan fixture, removed after each test. */
-function runWithShrunkPlan(): { dir: string; planned: string[]; dropped: string[] } {
-  const run = makeRunWithShrunkPlan();
-  cleanup = run.cleanup;
-  return run;
-}
+import { shrunkPlanRunForTest } from '../report/fixture-run.ts';
 
 describe('midpath prune', () => {
   it('lists the leftovers without touching them, then removes exactly them with --delete', async () => {
-    const { dir, planned, dropped } = runWithShrunkPlan();
+    const { dir, planned, dropped } = shrunkPlanRunForTest();
     expect(dropped.length).toBeGreaterThan(0);
     const listed = bufferIo(dir);
     expect(await main(['prune', dir], listed)).toBe(0);
@@ -39,7 +29,7 @@ describe('midpath prune', () => {
   });
 
   it('keeps a leftover that a live runner holds locked', async () => {
-    const { dir, dropped } = runWithShrunkPlan();
+    const { dir, dropped } = shrunkPlanRunForTest();
     const held = dropped[0]!;
     const owner = { pid: process.pid, hostname: hostname(), runId: 'other', createdAt: '' };
     writeFileSync(join(dir, 'jobs', held, '.lock'), JSON.stringify(owner));
@@ -50,7 +40,7 @@ describe('midpath prune', () => {
   });
 
   it('refuses a directory without plan.json, removing nothing', async () => {
-    const { dir } = runWithShrunkPlan();
+    const { dir } = shrunkPlanRunForTest();
     rmSync(join(dir, 'plan.json'));
     const before = readdirSync(join(dir, 'jobs')).length;
     const io = bufferIo(dir);

@@ -5,25 +5,15 @@
  */
 import { readFileSync, rmSync } from 'node:fs';
 import { join } from 'node:path';
-import { afterEach, describe, expect, it } from 'vitest';
+import { describe, expect, it } from 'vitest';
 import { main } from '../../runner/cli/main.ts';
 import { loadRun } from '../../runner/report/load-run.ts';
 import { bufferIo } from '../helpers/cli-io.ts';
-import { makeRunWithShrunkPlan } from './fixture-run.ts';
-
-let cleanup = (): void => undefined;
-afterEach(() => cleanup());
-
-/** The shrunk-plan fixture, removed after each test. */
-function runWithShrunkPlan(): { dir: string; planned: string[]; dropped: string[] } {
-  const run = makeRunWithShrunkPlan();
-  cleanup = run.cleanup;
-  return run;
-}
+import { shrunkPlanRunForTest } from './fixture-run.ts';
 
 describe('results of an earlier plan', () => {
   it('are left out of the aggregation, counted, and every summary rests on the planned seeds only', async () => {
-    const { dir, dropped: droppedIds } = runWithShrunkPlan();
+    const { dir, dropped: droppedIds } = shrunkPlanRunForTest();
     const dropped = droppedIds.length;
     const run = await loadRun(dir);
     expect(dropped).toBeGreaterThan(0);
@@ -33,7 +23,7 @@ describe('results of an earlier plan', () => {
   });
 
   it('are all shown when there is no plan.json to tell', async () => {
-    const { dir } = runWithShrunkPlan();
+    const { dir } = shrunkPlanRunForTest();
     rmSync(join(dir, 'plan.json'));
     const run = await loadRun(dir);
     expect(run.earlierResults).toBe(0);
@@ -41,7 +31,7 @@ describe('results of an earlier plan', () => {
   });
 
   it('are named in a note by table, compare, status and the HTML report', async () => {
-    const { dir, dropped: droppedIds } = runWithShrunkPlan();
+    const { dir, dropped: droppedIds } = shrunkPlanRunForTest();
     const dropped = droppedIds.length;
     const table = bufferIo(dir);
     expect(await main(['table', dir, '--format', 'csv'], table)).toBe(0);

@@ -2,6 +2,7 @@
 import { mkdtempSync, readdirSync, readFileSync, rmSync, writeFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
+import { onTestFinished } from 'vitest';
 import type { PlanFile } from '../../runner/store/result.ts';
 import { writeFixtureRun, type FixtureOptions } from '../fixtures/results/build-run.ts';
 
@@ -31,4 +32,11 @@ export function makeRunWithShrunkPlan(): {
   const planned = kept.map((job) => job.id);
   const onDisk = readdirSync(join(fixture.dir, 'jobs'));
   return { ...fixture, planned, dropped: onDisk.filter((id) => !planned.includes(id)) };
+}
+
+/** `makeRunWithShrunkPlan` inside a test, removed when that test finishes. */
+export function shrunkPlanRunForTest(): { dir: string; planned: string[]; dropped: string[] } {
+  const run = makeRunWithShrunkPlan();
+  onTestFinished(run.cleanup);
+  return run;
 }
